@@ -1,0 +1,29 @@
+import { defineConfig } from '@playwright/test';
+
+// Browser tests run against the built app that scripts/test.mjs starts (ORIGIN), in Debian's
+// chromium — nothing downloads a browser.
+export default defineConfig({
+	testDir: 'tests/browser',
+	outputDir: 'test-results',
+	timeout: 30_000,
+	fullyParallel: false,
+	workers: 1,
+	reporter: [['list']],
+	use: {
+		baseURL: process.env.ORIGIN ?? 'http://127.0.0.1:3010',
+		screenshot: 'only-on-failure',
+		launchOptions: {
+			executablePath: '/usr/bin/chromium',
+			args: [
+				'--headless',
+				'--no-sandbox',
+				'--disable-gpu',
+				'--disable-quic',
+				'--no-first-run',
+				'--disable-background-networking',
+				'--disable-component-update',
+				'--disable-sync'
+			]
+		}
+	}
+});

@@ -1,0 +1,42 @@
+// `npm run demo:reset`: drops the database, migrates it again and loads the demo scenario.
+// Works whether or not `npm start` is running (the app's pool reconnects by itself).
+import { spawnSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import pg from 'pg';
+import { loadEnv, root } from './lib/env.mjs';
+import { bringUpDatabase, defaultDataDir } from './lib/stack.mjs';
+
+if (!existsSync(join(root, '.env'))) {
+	console.error('No .env yet: run `npm start` once first.');
+	process.exit(1);
+}
+const env = loadEnv();
+const dataDir = defaultDataDir(root, env);
+const wasRunning = await isUp(env);
+
+const server = await bringUpDatabase(env, { dataDir, log: () => {} });
+const admin = new pg.Client({ connectionString: env.DATABASE_SUPERUSER_URL });
+await admin.connect();
+await admin.query(`DROP DATABASE IF EXISTS "${env.DB_NAME}" WITH (FORCE)`);
+await admin.end();
+await bringUpDatabase(env, { dataDir, log: () => {} });
+
+const seeded = spawnSync('npx', ['tsx', 'scripts/demo.ts', '--if-empty'], {
+	cwd: root,
+	env,
+	stdio: 'inherit'
+});
+if (!wasRunning) server.stop();
+process.exit(seeded.status ?? 1);
+
+async function isUp(e) {
+	const client = new pg.Client({ connectionString: e.DATABASE_SUPERUSER_URL });
+	try {
+		await client.connect();
+		await client.end();
+		return true;
+	} catch {
+		return false;
+	}
+}

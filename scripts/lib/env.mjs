@@ -1,0 +1,91 @@
+// Configuration for the scripts: defaults, the git-ignored .env (created with generated
+// secrets on first start), and the URLs derived from ports. Real environment variables win.
+import { randomBytes } from 'node:crypto';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { parseEnv } from 'node:util';
+import { resolve } from 'node:path';
+
+export const root = resolve(import.meta.dirname, '..', '..');
+
+export const defaults = {
+	HOST: '127.0.0.1',
+	PORT: '3000',
+	PGPORT: '54329',
+	S3_PORT: '4569',
+	S3_BUCKET: 'seamwell',
+	MAIL_SMTP_PORT: '1025',
+	MAIL_HTTP_PORT: '1080',
+	DB_NAME: 'seamwell',
+	DB_OWNER_USER: 'seamwell_owner',
+	DB_APP_USER: 'seamwell_app'
+};
+
+const secret = () => randomBytes(24).toString('base64url');
+
+/** Creates .env with fresh secrets when there is none; never overwrites an existing one. */
+export function ensureEnvFile(file = resolve(root, '.env')) {
+	if (existsSync(file)) return false;
+	const lines = [
+		'# Written by `npm start` on first run. Git-ignored: keep it out of version control.',
+		`AUTH_SECRET=${randomBytes(32).toString('base64url')}`,
+		`DB_SUPERUSER_PASSWORD=${secret()}`,
+		`DB_OWNER_PASSWORD=${secret()}`,
+		`DB_APP_PASSWORD=${secret()}`,
+		''
+	];
+	writeFileSync(file, lines.join('\n'), { mode: 0o600 });
+	return true;
+}
+
+/** Reads .env (if present) under the real environment, then fills defaults and derived URLs. */
+export function loadEnv({ file = resolve(root, '.env'), overrides = {} } = {}) {
+	const fromFile = existsSync(file) ? parseEnv(readFileSync(file, 'utf8')) : {};
+	const env = { ...defaults, ...fromFile, ...pickDefined(process.env), ...overrides };
+	return withDerived(env);
+}
+
+export const derivedKeys = [
+	'DATABASE_SUPERUSER_URL',
+	'DATABASE_OWNER_URL',
+	'DATABASE_URL',
+	'S3_ENDPOINT',
+	'SMTP_HOST',
+	'SMTP_PORT',
+	'MAIL_INBOX_URL',
+	'ORIGIN'
+];
+
+/**
+ * @param {Record<string, string | undefined>} env
+ * @returns {Record<string, string>}
+ */
+export function withDerived(env) {
+	const host = env.HOST;
+	/** @type {(user: string | undefined, password: string | undefined, db: string | undefined) => string} */
+	const pg = (user, password, db) =>
+		`postgres://${user}:${encodeURIComponent(password ?? '')}@127.0.0.1:${env.PGPORT}/${db}`;
+	const derived = {
+		DATABASE_SUPERUSER_URL: pg('postgres', env.DB_SUPERUSER_PASSWORD ?? '', 'postgres'),
+		DATABASE_OWNER_URL: pg(env.DB_OWNER_USER, env.DB_OWNER_PASSWORD ?? '', env.DB_NAME),
+		DATABASE_URL: pg(env.DB_APP_USER, env.DB_APP_PASSWORD ?? '', env.DB_NAME),
+		S3_ENDPOINT: `http://127.0.0.1:${env.S3_PORT}`,
+		SMTP_HOST: '127.0.0.1',
+		SMTP_PORT: env.MAIL_SMTP_PORT,
+		MAIL_INBOX_URL: `http://127.0.0.1:${env.MAIL_HTTP_PORT}`,
+		MAIL_FROM: 'Seamwell <no-reply@seamwell.example>',
+		ORIGIN: `http://${host}:${env.PORT}`,
+		// Uploads of assessment PDFs need more than adapter-node's 512 kB default; other
+		// routes are capped much lower in hooks.server.ts.
+		BODY_SIZE_LIMIT: String(21 * 1024 * 1024)
+	};
+	// An explicitly set value (environment or .env) beats a derived one.
+	return /** @type {Record<string, string>} */ ({ ...derived, ...env });
+}
+
+/** @param {Record<string, string | undefined>} source */
+function pickDefined(source) {
+	/** @type {Record<string, string>} */
+	const out = {};
+	for (const [key, value] of Object.entries(source)) if (value !== undefined) out[key] = value;
+	return out;
+}

@@ -1,0 +1,130 @@
+// `npm test`: every check and every test, against throwaway services of its own on
+// ports of their own (so it can run while `npm start` is up). Services are stopped also
+// when a test fails; the exit code is non-zero on any failure.
+import { spawn, spawnSync } from 'node:child_process';
+import { chmodSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { randomBytes } from 'node:crypto';
+import { defaults, derivedKeys, root, withDerived } from './lib/env.mjs';
+import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
+import { aptInstall } from './lib/postgres.mjs';
+import { bringUpDatabase } from './lib/stack.mjs';
+
+const log = (line) => console.log(`[test] ${line}`);
+const only = process.argv.slice(2); // e.g. `npm test -- unit` or `npm test -- browser`
+const want = (stage) => only.length === 0 || only.includes(stage);
+
+const secret = () => randomBytes(24).toString('base64url');
+const scratch = mkdtempSync(join(tmpdir(), 'seamwell-test-'));
+// The `postgres` OS user runs the test cluster (as root) and must be able to enter the folder.
+chmodSync(scratch, 0o711);
+// Ports, secrets and URLs of the test run's own; URLs are derived from the test ports,
+// never taken from the caller's environment (which may point at the `npm start` services).
+const base = {
+	...defaults,
+	...process.env,
+	NODE_ENV: 'test',
+	PORT: process.env.TEST_PORT ?? '3010',
+	PGPORT: process.env.TEST_PGPORT ?? '54339',
+	S3_PORT: process.env.TEST_S3_PORT ?? '4579',
+	MAIL_SMTP_PORT: process.env.TEST_MAIL_SMTP_PORT ?? '1035',
+	MAIL_HTTP_PORT: process.env.TEST_MAIL_HTTP_PORT ?? '1090',
+	AUTH_SECRET: secret(),
+	DB_SUPERUSER_PASSWORD: secret(),
+	DB_OWNER_PASSWORD: secret(),
+	DB_APP_PASSWORD: secret()
+};
+for (const key of derivedKeys) delete base[key];
+const testEnv = withDerived(base);
+
+const cleanups = [];
+const results = [];
+let failed = false;
+
+async function cleanup() {
+	for (const step of cleanups.reverse()) {
+		try {
+			await step();
+		} catch (error) {
+			console.error(error);
+		}
+	}
+	rmSync(scratch, { recursive: true, force: true });
+}
+process.on('SIGINT', async () => {
+	await cleanup();
+	process.exit(130);
+});
+
+function stage(name, cmd, args, extraEnv = {}) {
+	log(`▶ ${name}: ${cmd} ${args.join(' ')}`);
+	const started = Date.now();
+	const result = spawnSync(cmd, args, {
+		cwd: root,
+		env: { ...testEnv, ...extraEnv },
+		stdio: 'inherit'
+	});
+	const ok = result.status === 0;
+	results.push({ name, ok, seconds: ((Date.now() - started) / 1000).toFixed(1) });
+	if (!ok) failed = true;
+	return ok;
+}
+
+function ensureChromium() {
+	if (existsSync('/usr/bin/chromium')) return;
+	if (process.getuid?.() !== 0) {
+		throw new Error('Browser tests need Debian chromium: sudo apt-get install -y chromium');
+	}
+	log('Installing chromium from Debian packages …');
+	aptInstall(['chromium']);
+}
+
+try {
+	if (want('static')) {
+		stage('format', 'npx', ['prettier', '--check', '.', '--log-level', 'warn']);
+		stage('lint', 'npx', ['eslint', '.', '--max-warnings', '0']);
+		stage('types', 'npm', ['run', '-s', 'check']);
+	}
+	if (want('unit')) stage('unit', 'npx', ['vitest', 'run', '--project', 'unit']);
+
+	if (want('integration') || want('browser')) {
+		const database = await bringUpDatabase(testEnv, {
+			dataDir: join(scratch, 'pg'),
+			throwaway: true,
+			log
+		});
+		cleanups.push(() => database.stop());
+		const fakes = await startFakes(testEnv, { s3Dir: join(scratch, 's3'), log });
+		cleanups.push(() => fakes.stop());
+
+		if (want('integration'))
+			stage('integration', 'npx', ['vitest', 'run', '--project', 'integration']);
+
+		if (want('browser')) {
+			ensureChromium();
+			if (stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'])) {
+				stage('demo data', 'npx', ['tsx', 'scripts/demo.ts', '--reset-data']);
+				const app = spawn(process.execPath, ['build'], {
+					cwd: root,
+					env: testEnv,
+					stdio: ['ignore', 'ignore', 'inherit']
+				});
+				cleanups.push(() => stopChild(app));
+				await waitForHttp(`${testEnv.ORIGIN}/healthz`, 'app', app, 60_000);
+				stage('browser', 'npx', ['playwright', 'test']);
+			}
+		}
+	}
+} catch (error) {
+	failed = true;
+	console.error(`[test] ${error instanceof Error ? error.message : error}`);
+} finally {
+	await cleanup();
+}
+
+console.log('\n[test] Summary');
+for (const r of results) console.log(`  ${r.ok ? 'ok  ' : 'FAIL'} ${r.name} (${r.seconds} s)`);
+const passed = results.filter((r) => r.ok).length;
+console.log(`stages: ${passed} passed, ${results.length - passed} failed`);
+process.exit(failed ? 1 : 0);

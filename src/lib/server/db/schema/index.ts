@@ -1,0 +1,4 @@
+export * from './auth';
+export * from './organisations';
+export * from './audit';
+export * from './outbox';

@@ -1,0 +1,83 @@
+import {
+	DeleteObjectCommand,
+	GetObjectCommand,
+	HeadBucketCommand,
+	HeadObjectCommand,
+	ListObjectsV2Command,
+	PutObjectCommand,
+	S3Client
+} from '@aws-sdk/client-s3';
+import { config } from '../config';
+
+// The only module that talks to S3. The app reaches the local s3rver exactly as it would a
+// hosted S3: through the AWS SDK, path-style addressing.
+
+let client: S3Client | undefined;
+
+function s3(): S3Client {
+	if (!client) {
+		const c = config();
+		client = new S3Client({
+			endpoint: c.S3_ENDPOINT,
+			region: c.S3_REGION,
+			forcePathStyle: true,
+			credentials: { accessKeyId: c.S3_ACCESS_KEY_ID, secretAccessKey: c.S3_SECRET_ACCESS_KEY },
+			// s3rver predates the SDK's default CRC checksums; ask for them only when required.
+			requestChecksumCalculation: 'WHEN_REQUIRED',
+			responseChecksumValidation: 'WHEN_REQUIRED',
+			maxAttempts: 2
+		});
+	}
+	return client;
+}
+
+const bucket = () => config().S3_BUCKET;
+
+export async function putObject(key: string, body: Buffer, contentType: string): Promise<void> {
+	await s3().send(
+		new PutObjectCommand({ Bucket: bucket(), Key: key, Body: body, ContentType: contentType })
+	);
+}
+
+export async function getObject(key: string): Promise<Buffer> {
+	const result = await s3().send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
+	if (!result.Body) throw new Error(`S3 object ${key} has no body`);
+	return Buffer.from(await result.Body.transformToByteArray());
+}
+
+export async function deleteObject(key: string): Promise<void> {
+	await s3().send(new DeleteObjectCommand({ Bucket: bucket(), Key: key }));
+}
+
+export async function objectExists(key: string): Promise<boolean> {
+	try {
+		await s3().send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
+		return true;
+	} catch (error) {
+		if ((error as { name?: string }).name === 'NotFound') return false;
+		throw error;
+	}
+}
+
+export async function listKeys(prefix: string): Promise<string[]> {
+	const keys: string[] = [];
+	let token: string | undefined;
+	do {
+		const page = await s3().send(
+			new ListObjectsV2Command({ Bucket: bucket(), Prefix: prefix, ContinuationToken: token })
+		);
+		for (const item of page.Contents ?? []) if (item.Key) keys.push(item.Key);
+		token = page.IsTruncated ? page.NextContinuationToken : undefined;
+	} while (token);
+	return keys;
+}
+
+/** True when the bucket answers; used by the health check. */
+export async function storageHealthy(): Promise<boolean> {
+	try {
+		await s3().send(new HeadBucketCommand({ Bucket: bucket() }));
+		return true;
+	} catch {
+		return false;
+	}
+}

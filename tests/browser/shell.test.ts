@@ -1,0 +1,43 @@
+import { expect, test } from '@playwright/test';
+import { expectAccessible } from './a11y';
+
+test('the landing page says what Seamwell is for, with the caution, and is accessible', async ({
+	page
+}) => {
+	await page.goto('/');
+	await expect(page).toHaveTitle(/Seamwell/);
+	await expect(page.locator('html')).toHaveAttribute('lang', 'en');
+	await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+	await expect(page.getByText('Screening is not an assessment', { exact: false })).toBeVisible();
+	await expectAccessible(page);
+	await page.screenshot({ path: 'test-results/landing.png', fullPage: true });
+});
+
+test('an unknown address shows the designed 404 page', async ({ page }) => {
+	const response = await page.goto('/no-such-page');
+	expect(response?.status()).toBe(404);
+	await expect(page).toHaveTitle('Page not found — Seamwell');
+	await expect(page.getByRole('heading', { name: 'We could not find that page' })).toBeVisible();
+	await expect(page.getByRole('link', { name: 'Back to the start page' })).toBeVisible();
+	await expectAccessible(page);
+	await page.screenshot({ path: 'test-results/not-found.png', fullPage: true });
+});
+
+test('pages carry the security headers', async ({ request }) => {
+	const response = await request.get('/');
+	const headers = response.headers();
+	expect(headers['content-security-policy']).toContain("script-src 'self'");
+	expect(headers['content-security-policy']).toContain("frame-ancestors 'none'");
+	expect(headers['content-security-policy']).not.toContain('unsafe-eval');
+	expect(headers['x-content-type-options']).toBe('nosniff');
+	expect(headers['referrer-policy']).toBe('strict-origin-when-cross-origin');
+	expect(headers['x-frame-options']).toBe('DENY');
+});
+
+test('JSON and error responses carry the security headers too', async ({ request }) => {
+	for (const path of ['/healthz', '/no-such-page']) {
+		const headers = (await request.get(path)).headers();
+		expect(headers['x-content-type-options'], path).toBe('nosniff');
+		expect(headers['content-security-policy'], path).toBeTruthy();
+	}
+});
