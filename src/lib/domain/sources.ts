@@ -1,0 +1,51 @@
+/**
+ * Citations for every threshold and rule in the domain layer, written as the product shows
+ * them. Each says how sure we are of it: a value read in the source itself carries the bare
+ * citation; a secondary source, a recollection or a trade habit says so in the text, so a
+ * reader never mistakes common practice for a published figure.
+ */
+export const SOURCES = {
+	sperstad2016:
+		'Sperstad JB et al. Br J Sports Med 2016;50(17):1092 — ≥ 2 finger widths at any one of three sites (4.5 cm above, at, 4.5 cm below the navel)',
+	gluppe2018: 'Gluppe SL et al. Phys Ther 2018;98(4):260–268 — same 2-finger-width rule',
+	fingerWidthThresholdPractice:
+		'Common practice: two finger widths or more is the usual point for precautions and a physiotherapy referral (no published source)',
+	mota2015:
+		'Mota P et al. Man Ther 2015;20(1):200–205 — separation present in every primiparous woman at gestation week 35 (ultrasound)',
+	mota2015Criterion:
+		'Mota P et al. Man Ther 2015;20(1):200–205 — DRA by ultrasound = inter-rectus distance > 16 mm 2 cm below the navel',
+	beer2009:
+		'Beer GM et al. The normal width of the linea alba in nulliparous women. Clin Anat 2009;22:706–711 — upper limits of normal (90th percentile, ultrasound)',
+	ehs2021:
+		'Hernández-Granados P et al. European Hernia Society guidelines on management of rectus diastasis. Br J Surg 2021;108(10):1189 — rectus diastasis = separation wider than 2 cm',
+	qu2021:
+		'Qu E et al. Quant Imaging Med Surg (2021, year from memory) — ultrasound criteria from the 90th percentile of 116 nulliparous women',
+	hills2018:
+		'Hills NF et al. Phys Ther 2018;98:891–901 — inter-rectus distance ≥ 2.2 cm grouped as DRA at 1 year postpartum',
+	reinpold2019:
+		'Reinpold W et al. Classification of rectus diastasis. Front Surg 2019;6:1 — W1 < 3 cm, W2 3 to ≤ 5 cm, W3 > 5 cm (W3 seen only in a secondary source)',
+	keramidas2022:
+		'Keramidas E et al. Aesthetic Plast Surg 2022;46(5):2323–2332 — A 2–3 cm, B 3–5 cm, C 5–7 cm, D 7–9 cm',
+	carlstedt2020:
+		'Carlstedt A et al. Swedish national guideline recommendations (2020) — surgery considered only at ≥ 5 cm, after 6 months of structured training, ≥ 2 years after the last birth; a suspected hernia needs imaging or surgical review',
+	deepOrSoftPractice:
+		'Common practice, informed by Lee D, Hodges PW. JOSPT 2016;46(7):580–589 (linea alba distortion): a deep gap or a soft midline on the curl-up calls for a physiotherapist’s look even when narrow',
+	domingPractice:
+		'Common practice: doming or coning along the midline on effort calls for a physiotherapist’s look (no published source)',
+	goom2019RedFlags:
+		'Goom T, Donnelly G, Brockwell E. Returning to running postnatal, 2019 — red-flag symptom list (seen via NHS pages, a secondary source)',
+	painPractice:
+		'Common practice: pain on effort calls for a referral whatever the width (no published source)',
+	acog804:
+		'ACOG Committee Opinion 804 (2020) — warning signs to stop exercise in pregnancy and seek medical care (from memory, not verified)',
+	postnatalCheck:
+		'UK Chief Medical Officers’ Physical Activity Guidelines 2019, as restated by NHS pages (secondary source) — the postnatal check at about 6–8 weeks comes before building intensity',
+	sperstad2016Prevalence:
+		'Sperstad JB et al. Br J Sports Med 2016;50(17):1092 — separation by palpation in 60.0 % of women at 6 weeks postpartum',
+	fingerWidthEstimate:
+		'Rett MT et al. Rev Bras Fisioter 2009;13(4); Pitangui ACR et al., ABCS Health Sciences — one finger width ≈ 1.5 cm (approximate)',
+	trendStepPractice:
+		'Trade practice: a change of at most half a finger width (the test’s own step) is steady (no published source)'
+} as const;
+
+export type SourceKey = keyof typeof SOURCES;

@@ -1,0 +1,155 @@
+import type { Site } from './sites';
+import { SOURCES } from './sources';
+
+/**
+ * A change of at most half a finger width, inclusive, is steady: it is the test's own step,
+ * so a smaller change cannot be told from reading error (trade practice, no published source).
+ */
+export const STEADY_BAND = {
+	value: 0.5,
+	unit: 'finger_widths',
+	inclusive: true,
+	source: SOURCES.trendStepPractice
+} as const;
+
+/** Absorbs float noise such as 2.1 − 1.6 = 0.5000000000000002. */
+const EPSILON = 1e-9;
+const MS_PER_WEEK = 7 * 86_400_000;
+
+export type TrendDirection = 'improving' | 'steady' | 'widening';
+
+export interface TrendPoint {
+	takenAt: Date | string;
+	widthFingers: number;
+}
+
+export interface SiteTrend<P extends TrendPoint = TrendPoint> {
+	/** Null with fewer than two screenings. Narrowing is improving. */
+	direction: TrendDirection | null;
+	/** Latest minus first, in finger widths; negative is narrower. */
+	changeSinceFirst: number | null;
+	/** Latest minus the one before it. */
+	changeSincePrevious: number | null;
+	/** Change since the first per week between first and latest; null when no time passed. */
+	changePerWeek: number | null;
+	first: P | null;
+	latest: P | null;
+	count: number;
+}
+
+function timeOf(value: Date | string): number {
+	const ms = (typeof value === 'string' ? new Date(value) : value).getTime();
+	if (Number.isNaN(ms)) throw new RangeError(`Not a valid date: ${String(value)}`);
+	return ms;
+}
+
+/** Rounds away float noise from finger-width arithmetic (half steps need no more). */
+function clean(value: number): number {
+	return Math.round(value * 1e6) / 1e6;
+}
+
+/** Oldest first; points taken at the same moment keep their given order. */
+export function sortByTime<P extends { takenAt: Date | string }>(points: readonly P[]): P[] {
+	return points
+		.map((point) => ({ point, time: timeOf(point.takenAt) }))
+		.sort((a, b) => a.time - b.time)
+		.map(({ point }) => point);
+}
+
+export function directionOf(changeSinceFirst: number): TrendDirection {
+	if (Math.abs(changeSinceFirst) <= STEADY_BAND.value + EPSILON) return 'steady';
+	return changeSinceFirst < 0 ? 'improving' : 'widening';
+}
+
+/** The trend of one site, from the first screening to the latest, in any input order. */
+export function siteTrend<P extends TrendPoint>(points: readonly P[]): SiteTrend<P> {
+	const sorted = sortByTime(points);
+	const first = sorted[0] ?? null;
+	const latest = sorted.at(-1) ?? null;
+	const previous = sorted.at(-2) ?? null;
+	if (first === null || latest === null || previous === null) {
+		return {
+			direction: null,
+			changeSinceFirst: null,
+			changeSincePrevious: null,
+			changePerWeek: null,
+			first,
+			latest,
+			count: sorted.length
+		};
+	}
+	const changeSinceFirst = clean(latest.widthFingers - first.widthFingers);
+	const weeks = (timeOf(latest.takenAt) - timeOf(first.takenAt)) / MS_PER_WEEK;
+	return {
+		direction: directionOf(changeSinceFirst),
+		changeSinceFirst,
+		changeSincePrevious: clean(latest.widthFingers - previous.widthFingers),
+		changePerWeek: weeks > 0 ? changeSinceFirst / weeks : null,
+		first,
+		latest,
+		count: sorted.length
+	};
+}
+
+/** What trends and charts need of a screening; sites not recorded are skipped. */
+export interface ScreeningWidths {
+	takenAt: Date | string;
+	sites: Partial<Record<Site, { widthFingers: number; widthMm?: number | null }>>;
+}
+
+export interface SiteTrendPoint extends TrendPoint {
+	widthMm: number | null;
+}
+
+function pointsForSite(screenings: readonly ScreeningWidths[], site: Site): SiteTrendPoint[] {
+	return screenings.flatMap((screening) => {
+		const measure = screening.sites[site];
+		if (measure === undefined) return [];
+		return [
+			{
+				takenAt: screening.takenAt,
+				widthFingers: measure.widthFingers,
+				widthMm: measure.widthMm ?? null
+			}
+		];
+	});
+}
+
+/** The trend of each of the three sites. */
+export function screeningTrend(
+	screenings: readonly ScreeningWidths[]
+): Record<Site, SiteTrend<SiteTrendPoint>> {
+	return {
+		above_navel: siteTrend(pointsForSite(screenings, 'above_navel')),
+		at_navel: siteTrend(pointsForSite(screenings, 'at_navel')),
+		below_navel: siteTrend(pointsForSite(screenings, 'below_navel'))
+	};
+}
+
+export interface ChartPoint {
+	/** ISO 8601 timestamp. */
+	t: string;
+	fingers: number;
+	/** Only where a width was measured in mm. */
+	mm?: number;
+}
+
+function chartPointsForSite(screenings: readonly ScreeningWidths[], site: Site): ChartPoint[] {
+	return sortByTime(pointsForSite(screenings, site)).map((point) => {
+		const chartPoint: ChartPoint = {
+			t: new Date(timeOf(point.takenAt)).toISOString(),
+			fingers: point.widthFingers
+		};
+		if (point.widthMm !== null) chartPoint.mm = point.widthMm;
+		return chartPoint;
+	});
+}
+
+/** Per site, the points to plot, oldest first. */
+export function chartSeries(screenings: readonly ScreeningWidths[]): Record<Site, ChartPoint[]> {
+	return {
+		above_navel: chartPointsForSite(screenings, 'above_navel'),
+		at_navel: chartPointsForSite(screenings, 'at_navel'),
+		below_navel: chartPointsForSite(screenings, 'below_navel')
+	};
+}
