@@ -7,7 +7,16 @@ import svelteConfig from './svelte.config.js';
 
 export default ts.config(
 	{
-		ignores: ['build/', '.svelte-kit/', '.data/', 'drizzle/', 'test-results/', 'playwright-report/']
+		ignores: [
+			'build/',
+			'build-*/',
+			'.svelte-kit/',
+			'.svelte-kit-*/',
+			'.data/',
+			'drizzle/',
+			'test-results/',
+			'playwright-report/'
+		]
 	},
 	js.configs.recommended,
 	...ts.configs.recommended,

@@ -5,7 +5,9 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter({ out: 'build' }),
+		// BUILD_TAG lets several test runs build side by side (each into build-<tag>/).
+		adapter: adapter({ out: process.env.BUILD_TAG ? `build-${process.env.BUILD_TAG}` : 'build' }),
+		outDir: process.env.BUILD_TAG ? `.svelte-kit-${process.env.BUILD_TAG}` : '.svelte-kit',
 		// SvelteKit hashes its own inline bootstrap script; nothing else may run inline.
 		csp: {
 			mode: 'auto',

@@ -38,6 +38,8 @@ const base = {
 for (const key of derivedKeys) delete base[key];
 const testEnv = withDerived(base);
 
+const buildDir = process.env.BUILD_TAG ? `build-${process.env.BUILD_TAG}` : 'build';
+
 const cleanups = [];
 const results = [];
 let failed = false;
@@ -105,7 +107,7 @@ try {
 			ensureChromium();
 			if (stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'])) {
 				stage('demo data', 'npx', ['tsx', 'scripts/demo.ts', '--reset-data']);
-				const app = spawn(process.execPath, ['build'], {
+				const app = spawn(process.execPath, [buildDir], {
 					cwd: root,
 					env: testEnv,
 					stdio: ['ignore', 'ignore', 'inherit']
