@@ -1,0 +1,96 @@
+import type { RequestEvent } from '@sveltejs/kit';
+import { randomUUID } from 'node:crypto';
+import { z } from 'zod';
+import { ProblemError, notFound, problem, validationProblem } from './problem';
+
+// The JSON API's edge: one wrapper per endpoint that enforces the conventions (same-origin
+// mutations, content types, problem details, never a stack trace) so each endpoint only
+// parses, calls a service and answers.
+
+const MUTATING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+type Handler = (event: RequestEvent) => Promise<Response> | Response;
+
+export interface ApiOptions {
+	/** Content types a mutation may send; JSON by default. */
+	accepts?: Array<'json' | 'multipart'>;
+}
+
+export function apiHandler(handler: Handler, options: ApiOptions = {}): Handler {
+	const accepts = options.accepts ?? ['json'];
+	return async (event) => {
+		try {
+			if (MUTATING.has(event.request.method)) {
+				assertSameOrigin(event);
+				assertContentType(event, accepts);
+			}
+			return await handler(event);
+		} catch (error) {
+			if (error instanceof ProblemError) return error.toResponse(event.url.pathname);
+			const errorId = randomUUID();
+			console.error(`[api ${errorId}] ${event.request.method} ${event.url.pathname}`, error);
+			return problem('internal-error', {
+				detail: `Something went wrong on our side. Reference ${errorId}.`,
+				instance: event.url.pathname,
+				errorId
+			});
+		}
+	};
+}
+
+function assertSameOrigin(event: RequestEvent): void {
+	const origin = event.request.headers.get('origin');
+	if (!origin || origin !== event.url.origin) {
+		throw new ProblemError('cross-origin', {
+			detail: 'Changes must come from Seamwell itself: the Origin header is missing or foreign.'
+		});
+	}
+}
+
+function assertContentType(event: RequestEvent, accepts: Array<'json' | 'multipart'>): void {
+	if (event.request.method === 'DELETE' && !event.request.headers.get('content-length')) return;
+	const type = (event.request.headers.get('content-type') ?? '')
+		.split(';')[0]!
+		.trim()
+		.toLowerCase();
+	const ok =
+		(accepts.includes('json') && type === 'application/json') ||
+		(accepts.includes('multipart') && type === 'multipart/form-data');
+	if (!ok) {
+		throw new ProblemError('unsupported-media-type', {
+			detail: `Send ${accepts.map((a) => (a === 'json' ? 'application/json' : 'multipart/form-data')).join(' or ')}.`
+		});
+	}
+}
+
+/** Reads and validates a JSON body: malformed → 400, schema error → 422 with pointers. */
+export async function readJson<T extends z.ZodType>(
+	event: RequestEvent,
+	schema: T
+): Promise<z.infer<T>> {
+	let body: unknown;
+	try {
+		body = await event.request.json();
+	} catch {
+		throw new ProblemError('malformed-json', { detail: 'The request body is not valid JSON.' });
+	}
+	const parsed = schema.safeParse(body);
+	if (!parsed.success) throw validationProblem(parsed.error);
+	return parsed.data;
+}
+
+/** Validates query parameters; pointers name the parameter (`/limit`). */
+export function readQuery<T extends z.ZodType>(url: URL, schema: T): z.infer<T> {
+	const parsed = schema.safeParse(Object.fromEntries(url.searchParams));
+	if (!parsed.success) throw validationProblem(parsed.error);
+	return parsed.data;
+}
+
+const uuid = z.uuid();
+
+/** A path id that is not a UUID cannot name a record: 404, like any record one may not see. */
+export function readId(value: string | undefined): string {
+	const parsed = uuid.safeParse(value);
+	if (!parsed.success) throw notFound();
+	return parsed.data;
+}
