@@ -1,5 +1,7 @@
+import { redirect } from '@sveltejs/kit';
 import type { AccessContext } from './audit';
 import type { Actor } from './actor';
+import { ProblemError } from './http/problem';
 
 /**
  * What every service function receives first: who is asking (the actor, loaded once per
@@ -8,4 +10,21 @@ import type { Actor } from './actor';
 export interface Caller {
 	actor: Actor;
 	access: AccessContext;
+}
+
+/** For page loads and form actions: anonymous visitors go to sign-in and come back after. */
+export function requirePageCaller(locals: App.Locals, url: URL): Caller {
+	if (!locals.actor) {
+		const back = url.pathname + url.search;
+		redirect(303, `/signin?callbackUrl=${encodeURIComponent(back)}`);
+	}
+	return { actor: locals.actor, access: locals.access };
+}
+
+/** For JSON endpoints: anonymous callers get a 401 problem. */
+export function requireApiCaller(locals: App.Locals): Caller {
+	if (!locals.actor) {
+		throw new ProblemError('unauthenticated', { detail: 'Sign in to use the Seamwell API.' });
+	}
+	return { actor: locals.actor, access: locals.access };
 }
