@@ -73,13 +73,19 @@ function stage(name, cmd, args, extraEnv = {}) {
 	return ok;
 }
 
-function ensureChromium() {
-	if (existsSync('/usr/bin/chromium')) return;
+/** Debian packages the tests use: chromium for the browser, poppler-utils to read PDFs back. */
+function ensureDebianPackages() {
+	const missing = [
+		['/usr/bin/chromium', 'chromium'],
+		['/usr/bin/pdftotext', 'poppler-utils']
+	].filter(([path]) => !existsSync(path));
+	if (missing.length === 0) return;
+	const names = missing.map(([, name]) => name);
 	if (process.getuid?.() !== 0) {
-		throw new Error('Browser tests need Debian chromium: sudo apt-get install -y chromium');
+		throw new Error(`Tests need Debian packages: sudo apt-get install -y ${names.join(' ')}`);
 	}
-	log('Installing chromium from Debian packages …');
-	aptInstall(['chromium']);
+	log(`Installing ${names.join(', ')} from Debian packages …`);
+	aptInstall(names);
 }
 
 try {
@@ -88,6 +94,7 @@ try {
 		stage('lint', 'npx', ['eslint', '.', '--max-warnings', '0']);
 		stage('types', 'npm', ['run', '-s', 'check']);
 	}
+	if (want('unit') || want('browser')) ensureDebianPackages();
 	if (want('unit')) stage('unit', 'npx', ['vitest', 'run', '--project', 'unit']);
 
 	if (want('integration') || want('browser')) {
@@ -104,7 +111,6 @@ try {
 			stage('integration', 'npx', ['vitest', 'run', '--project', 'integration']);
 
 		if (want('browser')) {
-			ensureChromium();
 			if (stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'])) {
 				stage('demo data', 'npx', ['tsx', 'scripts/demo.ts', '--reset-data']);
 				const app = spawn(process.execPath, [buildDir], {

@@ -17,7 +17,9 @@ export const defaults = {
 	MAIL_HTTP_PORT: '1080',
 	DB_NAME: 'seamwell',
 	DB_OWNER_USER: 'seamwell_owner',
-	DB_APP_USER: 'seamwell_app'
+	DB_APP_USER: 'seamwell_app',
+	// We pin an SDK release that supports Node 20; its notice about later releases is noise.
+	AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true'
 };
 
 const secret = () => randomBytes(24).toString('base64url');
