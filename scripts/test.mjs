@@ -12,7 +12,12 @@ import { aptInstall } from './lib/postgres.mjs';
 import { bringUpDatabase } from './lib/stack.mjs';
 
 const log = (line) => console.log(`[test] ${line}`);
-const only = process.argv.slice(2); // e.g. `npm test -- unit` or `npm test -- browser`
+// `npm test -- unit` runs one stage; any other argument filters test files, e.g.
+// `npm test -- integration tests/integration/services.test.ts`.
+const STAGES = ['static', 'unit', 'integration', 'browser'];
+const args = process.argv.slice(2);
+const only = args.filter((a) => STAGES.includes(a));
+const filters = args.filter((a) => !STAGES.includes(a));
 const want = (stage) => only.length === 0 || only.includes(stage);
 
 const secret = () => randomBytes(24).toString('base64url');
@@ -95,7 +100,7 @@ try {
 		stage('types', 'npm', ['run', '-s', 'check']);
 	}
 	if (want('unit') || want('browser')) ensureDebianPackages();
-	if (want('unit')) stage('unit', 'npx', ['vitest', 'run', '--project', 'unit']);
+	if (want('unit')) stage('unit', 'npx', ['vitest', 'run', '--project', 'unit', ...filters]);
 
 	if (want('integration') || want('browser')) {
 		const database = await bringUpDatabase(testEnv, {
@@ -108,7 +113,7 @@ try {
 		cleanups.push(() => fakes.stop());
 
 		if (want('integration'))
-			stage('integration', 'npx', ['vitest', 'run', '--project', 'integration']);
+			stage('integration', 'npx', ['vitest', 'run', '--project', 'integration', ...filters]);
 
 		if (want('browser')) {
 			if (stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'])) {
@@ -120,7 +125,7 @@ try {
 				});
 				cleanups.push(() => stopChild(app));
 				await waitForHttp(`${testEnv.ORIGIN}/healthz`, 'app', app, 60_000);
-				stage('browser', 'npx', ['playwright', 'test']);
+				stage('browser', 'npx', ['playwright', 'test', ...filters]);
 			}
 		}
 	}
