@@ -2,14 +2,13 @@
 // ports of their own (so it can run while `npm start` is up). Services are stopped also
 // when a test fails; the exit code is non-zero on any failure.
 import { spawn, spawnSync } from 'node:child_process';
-import { chmodSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { randomBytes } from 'node:crypto';
-import { defaults, derivedKeys, root, withDerived } from './lib/env.mjs';
+import { root } from './lib/env.mjs';
 import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
 import { aptInstall } from './lib/postgres.mjs';
 import { bringUpDatabase } from './lib/stack.mjs';
+import { throwawayEnv } from './lib/throwaway.mjs';
 
 const log = (line) => console.log(`[test] ${line}`);
 // `npm test -- unit` runs one stage; any other argument filters test files, e.g.
@@ -20,28 +19,16 @@ const only = args.filter((a) => STAGES.includes(a));
 const filters = args.filter((a) => !STAGES.includes(a));
 const want = (stage) => only.length === 0 || only.includes(stage);
 
-const secret = () => randomBytes(24).toString('base64url');
-const scratch = mkdtempSync(join(tmpdir(), 'seamwell-test-'));
-// The `postgres` OS user runs the test cluster (as root) and must be able to enter the folder.
-chmodSync(scratch, 0o711);
-// Ports, secrets and URLs of the test run's own; URLs are derived from the test ports,
-// never taken from the caller's environment (which may point at the `npm start` services).
-const base = {
-	...defaults,
-	...process.env,
-	NODE_ENV: 'test',
-	PORT: process.env.TEST_PORT ?? '3010',
-	PGPORT: process.env.TEST_PGPORT ?? '54339',
-	S3_PORT: process.env.TEST_S3_PORT ?? '4579',
-	MAIL_SMTP_PORT: process.env.TEST_MAIL_SMTP_PORT ?? '1035',
-	MAIL_HTTP_PORT: process.env.TEST_MAIL_HTTP_PORT ?? '1090',
-	AUTH_SECRET: secret(),
-	DB_SUPERUSER_PASSWORD: secret(),
-	DB_OWNER_PASSWORD: secret(),
-	DB_APP_PASSWORD: secret()
-};
-for (const key of derivedKeys) delete base[key];
-const testEnv = withDerived(base);
+const { env: testEnv, scratch } = throwawayEnv({
+	prefix: 'test',
+	ports: {
+		PORT: process.env.TEST_PORT ?? '3010',
+		PGPORT: process.env.TEST_PGPORT ?? '54339',
+		S3_PORT: process.env.TEST_S3_PORT ?? '4579',
+		MAIL_SMTP_PORT: process.env.TEST_MAIL_SMTP_PORT ?? '1035',
+		MAIL_HTTP_PORT: process.env.TEST_MAIL_HTTP_PORT ?? '1090'
+	}
+});
 
 const buildDir = process.env.BUILD_TAG ? `build-${process.env.BUILD_TAG}` : 'build';
 
