@@ -2,8 +2,11 @@ export { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } fr
 export {
 	recordAccess,
 	recordRefusal,
+	hasRecordedRefusal,
 	subjectKeyFor,
 	systemContext,
 	type AccessContext,
 	type AccessEvent
 } from './writer';
+export { sealPending, startSealer, type SealResult } from './sealer';
+export { describeReport, verifyChain, type BrokenLink, type VerifyReport } from './verify';

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { db, type Executor } from '../db';
 import { accessLog, subjectKeys } from '../db/schema';
-import type { AuditAction, AuditOutcome } from './actions';
+import { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } from './actions';
 
 // The sole writer of the access log. Nothing else inserts into it, and no code path
 // updates or deletes (the database refuses both anyway).
@@ -24,6 +24,9 @@ export interface AccessEvent {
 	clientId?: string | null;
 }
 
+const knownActions = new Set<string>(AUDIT_ACTIONS);
+const knownOutcomes = new Set<string>(AUDIT_OUTCOMES);
+
 export const systemContext: AccessContext = {
 	userId: null,
 	role: 'system',
@@ -41,6 +44,11 @@ export async function recordAccess(
 	context: AccessContext,
 	event: AccessEvent
 ): Promise<void> {
+	// Types already say so; this holds against casts and untyped callers too.
+	if (!knownActions.has(event.action)) throw new Error(`unknown access-log action ${event.action}`);
+	if (!knownOutcomes.has(event.outcome)) {
+		throw new Error(`unknown access-log outcome ${event.outcome}`);
+	}
 	const subjectKey = event.clientId ? await subjectKeyFor(executor, event.clientId) : null;
 	await executor.insert(accessLog).values({
 		actorUserId: context.userId,
@@ -54,6 +62,18 @@ export async function recordAccess(
 		clientAddress: context.address,
 		userAgent: context.userAgent?.slice(0, 512) ?? null
 	});
+	if (event.outcome !== 'success') refusalsRecorded.add(context);
+}
+
+/** Request contexts that already have a refusal on record (see hasRecordedRefusal). */
+const refusalsRecorded = new WeakSet<AccessContext>();
+
+/**
+ * True when this request already logged a refusal: the hooks log any other "not found"
+ * answer to a signed-in person (a malformed id, say) so that no refusal goes unrecorded.
+ */
+export function hasRecordedRefusal(context: AccessContext): boolean {
+	return refusalsRecorded.has(context);
 }
 
 /**

@@ -26,3 +26,37 @@ export async function queueMail(executor: Executor, mail: QueuedMail): Promise<s
 		.returning({ id: outbox.id });
 	return row!.id;
 }
+
+export interface Notification {
+	to: string;
+	/** Where to look, e.g. `${ORIGIN}/referrals/…`: an address in Seamwell, never the content. */
+	link: string;
+	/** What kind of notification, e.g. `referral.received`. */
+	kind: string;
+}
+
+/**
+ * Queues a notification. Its words are fixed: that there is something to see, and a link.
+ * Health details (measurements, findings, clearances, names of conditions) never travel by
+ * mail; the reader signs in to see them.
+ */
+export async function queueNotification(
+	executor: Executor,
+	notification: Notification
+): Promise<string> {
+	const link = new URL(notification.link).toString();
+	return queueMail(executor, {
+		to: notification.to,
+		kind: notification.kind,
+		subject: 'There is something new for you in Seamwell',
+		text: [
+			'Hello,',
+			'',
+			'There is something new for you in Seamwell. Sign in to see it:',
+			'',
+			link,
+			'',
+			'This message holds no details on purpose: they stay in Seamwell.'
+		].join('\n')
+	});
+}

@@ -1,0 +1,150 @@
+import { randomUUID } from 'node:crypto';
+import pg from 'pg';
+import { desc, eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { requireEnv } from '../../../../tests/support/services';
+import { db } from '../db';
+import { accessLog, subjectKeys } from '../db/schema';
+import { recordAccess, recordRefusal, type AccessContext } from './writer';
+import type { AuditAction } from './actions';
+import { sealPending } from './sealer';
+import { createTestClient } from './testing/client';
+import { createScratchDatabase, type ScratchDatabase } from './testing/scratch-database';
+import { verifyChain } from './verify';
+
+// The writer against the real database (shared test database, app role), and the
+// database's own refusal to rewrite history.
+
+const context = (): AccessContext => ({
+	userId: randomUUID(),
+	role: 'instructor',
+	organisationId: randomUUID(),
+	address: '203.0.113.7',
+	userAgent: 'Mozilla/5.0 (integration test)'
+});
+
+async function rowsOf(userId: string) {
+	return db()
+		.select()
+		.from(accessLog)
+		.where(eq(accessLog.actorUserId, userId))
+		.orderBy(desc(accessLog.id));
+}
+
+async function connect(url: string) {
+	const client = new pg.Client({ connectionString: url });
+	await client.connect();
+	return client;
+}
+
+describe('the access-log writer', () => {
+	it('records each field, with a subject key in place of the client id', async () => {
+		const who = context();
+		const clientId = await createTestClient(db());
+		const targetId = clientId;
+		const before = Date.now();
+		await db().transaction((tx) =>
+			recordAccess(tx, who, {
+				action: 'client.read',
+				outcome: 'success',
+				target: { type: 'client', id: targetId },
+				clientId
+			})
+		);
+		const [row] = await rowsOf(who.userId!);
+		expect(row).toMatchObject({
+			actorUserId: who.userId,
+			actorRole: 'instructor',
+			actorOrganisationId: who.organisationId,
+			action: 'client.read',
+			targetType: 'client',
+			targetId,
+			outcome: 'success',
+			clientAddress: '203.0.113.7',
+			userAgent: 'Mozilla/5.0 (integration test)'
+		});
+		// The database's clock stamps the row (UTC instant); allow for clock skew and latency.
+		expect(Math.abs(row!.at.getTime() - before)).toBeLessThan(5_000);
+		expect(row!.subjectKey).toBeTruthy();
+		expect(row!.subjectKey).not.toBe(clientId);
+		const [map] = await db()
+			.select()
+			.from(subjectKeys)
+			.where(eq(subjectKeys.key, row!.subjectKey!));
+		expect(map?.clientId).toBe(clientId);
+
+		// The same client keeps her key.
+		await recordAccess(db(), who, { action: 'screening.read', outcome: 'success', clientId });
+		const rows = await rowsOf(who.userId!);
+		expect(rows).toHaveLength(2);
+		expect(rows[0]!.subjectKey).toBe(rows[1]!.subjectKey);
+	});
+
+	it('refuses an action code that is not on the published list', async () => {
+		const who = context();
+		await expect(
+			recordAccess(db(), who, {
+				action: 'client.measurements' as AuditAction,
+				outcome: 'success'
+			})
+		).rejects.toThrow(/unknown access-log action/);
+		expect(await rowsOf(who.userId!)).toHaveLength(0);
+	});
+
+	it('keeps a refusal recorded inside a transaction that rolls back', async () => {
+		const who = context();
+		const target = { type: 'document', id: randomUUID() };
+		await expect(
+			db().transaction(async (tx) => {
+				await recordAccess(tx, who, { action: 'document.downloaded', outcome: 'success', target });
+				await recordRefusal(who, { action: 'access.denied', target });
+				throw new Error('the work fails after the refusal');
+			})
+		).rejects.toThrow('the work fails');
+		const rows = await rowsOf(who.userId!);
+		expect(rows.map((r) => [r.action, r.outcome])).toEqual([['access.denied', 'refused']]);
+	});
+});
+
+describe('the database refuses rewriting the log', () => {
+	// A database of its own: the seal table gets a real seal, which must not touch the shared one.
+	let scratch: ScratchDatabase;
+	let rowId: number;
+	beforeAll(async () => {
+		scratch = await createScratchDatabase('rewrite');
+		await recordAccess(scratch.app, context(), { action: 'client.listed', outcome: 'success' });
+		const sealed = await sealPending(scratch.app, { gapGraceMs: 0 });
+		rowId = sealed.headRowId!;
+	});
+	afterAll(() => scratch?.drop());
+
+	const statements = [
+		`update access_log set action = 'client.updated' where id = $1`,
+		`delete from access_log where id = $1`,
+		`truncate access_log`,
+		`update access_log_seals set hash = repeat('0', 64) where row_id = $1`,
+		`delete from access_log_seals where row_id = $1`,
+		`truncate access_log_seals`
+	];
+
+	it.each([
+		// The app role has no UPDATE, DELETE or TRUNCATE grant: refused before the triggers.
+		['the app role', 'DATABASE_URL', /permission denied/],
+		// The owner may do anything the grants allow: the triggers refuse.
+		['the owner', 'DATABASE_OWNER_URL', /append-only: (UPDATE|DELETE|TRUNCATE) refused/]
+	])('UPDATE, DELETE and TRUNCATE fail for %s', async (_who, urlName, refusal) => {
+		const url = new URL(requireEnv(urlName));
+		url.pathname = `/${scratch.name}`;
+		const client = await connect(url.toString());
+		try {
+			for (const statement of statements) {
+				const params = statement.includes('$1') ? [rowId] : [];
+				await expect(client.query(statement, params), statement).rejects.toThrow(refusal);
+			}
+		} finally {
+			await client.end();
+		}
+		const report = await verifyChain(scratch.app);
+		expect(report).toMatchObject({ intact: true, rows: 1, sealed: 1 });
+	});
+});

@@ -1,0 +1,29 @@
+import { startSealer } from './audit/sealer';
+import { db } from './db';
+import { startOutboxWorker } from './mail/worker';
+
+let running: (() => Promise<void>) | undefined;
+
+/**
+ * Starts the background work of one app process: the mail outbox worker and the access
+ * log's sealer. Several processes may each run them: the outbox claims rows with
+ * FOR UPDATE SKIP LOCKED and the sealer is elected by an advisory lock. Neither throws when
+ * the database or the SMTP server is down; they log and try again. Returns a function that
+ * stops both and resolves once their work in progress has finished.
+ */
+export function startBackgroundWorkers(): () => Promise<void> {
+	// Started once per process, even if the init hook runs again (dev server reloads).
+	if (running) return running;
+	const database = db();
+	const outbox = startOutboxWorker({ database });
+	const sealer = startSealer(database);
+	let stopping: Promise<void> | undefined;
+	const stop = () => {
+		stopping ??= Promise.all([outbox.stop(), sealer.stop()]).then(() => {
+			running = undefined;
+		});
+		return stopping;
+	};
+	running = stop;
+	return stop;
+}
