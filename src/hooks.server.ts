@@ -1,11 +1,31 @@
-import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
+import { redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
+import { CALLBACK_PATH, SIGNOUT_PATH, authHandle, sessionCookieName } from '$lib/server/auth';
+import type { AccessContext } from '$lib/server/audit';
 import { config } from '$lib/server/config';
+import { decideRoute } from '$lib/server/people/policy';
+import {
+	ORGANISATION_COOKIE,
+	accessRole,
+	inspectSignInLink,
+	linkLogId,
+	loadActor,
+	recordSignInEvent,
+	resolveSession,
+	sessionOwner,
+	signInTokenHash
+} from '$lib/server/people/sessions';
+import { hasRecordedRefusal, recordRefusal } from '$lib/server/audit';
+import { startBackgroundWorkers } from '$lib/server/workers';
 
-// Fail at start-up, naming the variable, rather than on the first request.
+let stopWorkers: (() => Promise<void>) | undefined;
+
+// Fail at start-up, naming the variable, rather than on the first request; then start the
+// mail outbox worker and the log sealer once per process.
 export const init: ServerInit = async () => {
 	config();
+	stopWorkers ??= startBackgroundWorkers();
 };
 
 /** Headers every response carries; the Content-Security-Policy comes from svelte.config.js. */
@@ -43,7 +63,172 @@ function withHeaders(response: Response): Response {
 	return copy;
 }
 
-export const handle: Handle = sequence(securityHeaders);
+/** Who is asking and from where, for the access log: anonymous until the session is read. */
+const accessContext: Handle = async ({ event, resolve }) => {
+	let address: string | null = null;
+	try {
+		address = event.getClientAddress();
+	} catch {
+		// ADDRESS_HEADER set but missing from this request: log without an address.
+	}
+	const access: AccessContext = {
+		userId: null,
+		role: null,
+		organisationId: null,
+		address,
+		userAgent: event.request.headers.get('user-agent')
+	};
+	event.locals.access = access;
+	event.locals.actor = null;
+	return resolve(event);
+};
+
+const seeOther = (location: string) => new Response(null, { status: 303, headers: { location } });
+
+/**
+ * Around Auth.js's handler: a plain GET of the mail's callback link (a mail scanner, say)
+ * goes to the confirmation page and uses nothing up; a confirmation POST and a sign-out are
+ * recorded in the access log; a refused link goes to a page that says why.
+ */
+const authEvents: Handle = async ({ event, resolve }) => {
+	const { pathname, search, searchParams } = event.url;
+	if (pathname === CALLBACK_PATH && event.request.method === 'GET') {
+		return seeOther(`/signin/confirm${search}`);
+	}
+	if (pathname === CALLBACK_PATH && event.request.method === 'POST') {
+		const email = (searchParams.get('email') ?? '').toLowerCase();
+		const token = searchParams.get('token') ?? '';
+		const state = await inspectSignInLink(email, token);
+		const response = await resolve(event);
+		const cookieName = sessionCookieName(event.url);
+		const signedIn = response.headers
+			.getSetCookie()
+			.some((c) => c.startsWith(`${cookieName}=`) && !c.startsWith(`${cookieName}=;`));
+		const link = { type: 'signin_link', id: linkLogId(signInTokenHash(token)) };
+		if (signedIn) {
+			await recordSignInEvent(event.locals.access, {
+				action: 'signin.succeeded',
+				outcome: 'success',
+				email,
+				target: link
+			});
+			return response;
+		}
+		await recordSignInEvent(event.locals.access, {
+			action: state === 'valid' ? 'signin.refused' : 'signin.failed',
+			outcome: state === 'valid' ? 'refused' : 'failed',
+			email,
+			target: state === 'valid' ? link : { type: 'signin_link_state', id: state }
+		});
+		return seeOther(`/signin/error?reason=${state === 'valid' ? 'refused' : state}`);
+	}
+	if (pathname === SIGNOUT_PATH && event.request.method === 'POST') {
+		const token = event.cookies.get(sessionCookieName(event.url));
+		const userId = token ? await sessionOwner(token) : null;
+		const response = await resolve(event);
+		if (userId) {
+			await recordSignInEvent(event.locals.access, {
+				action: 'signout',
+				outcome: 'success',
+				userId
+			});
+		}
+		return response;
+	}
+	return resolve(event);
+};
+
+/**
+ * Loads the signed-in person. Requests marked `x-seamwell-background: 1` (a page refreshing
+ * itself) read the session without extending it: only what she does keeps her signed in.
+ */
+const loadPerson: Handle = async ({ event, resolve }) => {
+	const cookieName = sessionCookieName(event.url);
+	const token = event.cookies.get(cookieName);
+	if (!token) return resolve(event);
+	const background = event.request.headers.get('x-seamwell-background') === '1';
+	const session = await resolveSession(token, {
+		extend: !background,
+		access: event.locals.access
+	});
+	const actor =
+		session.state === 'active'
+			? await loadActor(session.userId, event.cookies.get(ORGANISATION_COOKIE) ?? null)
+			: null;
+	if (!actor || session.state !== 'active') {
+		event.cookies.delete(cookieName, { path: '/' });
+		return resolve(event);
+	}
+	event.locals.actor = actor;
+	event.locals.access = {
+		...event.locals.access,
+		userId: actor.userId,
+		role: accessRole(actor),
+		organisationId: actor.activeOrganisationId
+	};
+	if (session.extended) {
+		event.cookies.set(cookieName, token, {
+			path: '/',
+			httpOnly: true,
+			sameSite: 'lax',
+			secure: event.url.protocol === 'https:',
+			expires: session.expires
+		});
+	}
+	return resolve(event);
+};
+
+/**
+ * Route groups guarded on the server: (app) needs a sign-in; a role's area is simply not
+ * there for anyone else (the designed 404 page, and a row in the access log).
+ */
+const guardRoutes: Handle = async ({ event, resolve }) => {
+	const decision = decideRoute(event.route.id, event.locals.actor);
+	if (decision === 'signin') {
+		const back = event.url.pathname + event.url.search;
+		redirect(303, `/signin?callbackUrl=${encodeURIComponent(back)}`);
+	}
+	if (decision === 'hidden') {
+		await recordRefusal(event.locals.access, {
+			action: 'access.denied',
+			target: { type: 'route', id: event.route.id ?? event.url.pathname }
+		});
+		const page = await event.fetch('/.not-here', { headers: { accept: 'text/html' } });
+		return new Response(page.body, { status: 404, headers: page.headers });
+	}
+	return resolve(event);
+};
+
+/**
+ * Every refusal is in the access log: a "not found" answered to a signed-in person on a real
+ * route (a malformed id, a record she may not know of) that no service recorded is logged here.
+ */
+const recordUnloggedRefusals: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	const access = event.locals.access;
+	if (
+		response.status === 404 &&
+		event.locals.actor &&
+		event.route.id &&
+		!hasRecordedRefusal(access)
+	) {
+		await recordRefusal(access, {
+			action: 'access.denied',
+			target: { type: 'path', id: event.url.pathname.slice(0, 300) }
+		});
+	}
+	return response;
+};
+
+export const handle: Handle = sequence(
+	securityHeaders,
+	accessContext,
+	authEvents,
+	authHandle,
+	loadPerson,
+	recordUnloggedRefusals,
+	guardRoutes
+);
 
 /** Logs the error with an id and shows the person a plain message with that id — never a stack. */
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

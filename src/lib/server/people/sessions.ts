@@ -1,0 +1,233 @@
+import { and, asc, desc, eq, gt, inArray, sql } from 'drizzle-orm';
+import { createHash } from 'node:crypto';
+import type { Actor, MemberRole, Membership, OrganisationKind } from '../actor';
+import { recordAccess, type AccessContext } from '../audit';
+import type { AuditAction, AuditOutcome } from '../audit';
+import { config } from '../config';
+import { db } from '../db';
+import {
+	accessLog,
+	clients,
+	memberships,
+	organisations,
+	sessions,
+	users,
+	verificationTokens
+} from '../db/schema';
+
+// Sessions and sign-in bookkeeping, called by hooks.server.ts and src/lib/server/auth.ts
+// (not by routes): reading a session without extending it, the idle and absolute limits,
+// the actor, who may receive a sign-in link, and the access-log rows of signing in and out.
+
+/** Idle timeout (ASVS 7.3.1): a session unused this long ends. */
+export const SESSION_IDLE_SECONDS = 30 * 60;
+/** Absolute lifetime from sign-in (ASVS 7.3.2), whatever the activity. */
+export const SESSION_ABSOLUTE_SECONDS = 12 * 60 * 60;
+/** Activity moves the idle deadline at most this often (one write a minute, not per request). */
+export const SESSION_TOUCH_SECONDS = 60;
+/** A sign-in link lives this long and works once (ASVS 6.5.1, 6.5.5). */
+export const SIGNIN_LINK_SECONDS = 10 * 60;
+
+/** The cookie holding the organisation she chose to act in; checked against her memberships on every request. */
+export const ORGANISATION_COOKIE = 'seamwell-org';
+
+export type SessionEnd = 'idle' | 'absolute' | 'inactive';
+
+export type SessionState =
+	| { state: 'none' }
+	| { state: 'ended'; userId: string; reason: SessionEnd }
+	| { state: 'active'; userId: string; expires: Date; extended: boolean };
+
+/** Why a session row can no longer be used, or null while it may. */
+export function sessionEnd(
+	row: { expires: Date; createdAt: Date; active: boolean },
+	now = new Date()
+): SessionEnd | null {
+	if (!row.active) return 'inactive';
+	if (now.getTime() - row.createdAt.getTime() >= SESSION_ABSOLUTE_SECONDS * 1000) return 'absolute';
+	if (row.expires.getTime() <= now.getTime()) return 'idle';
+	return null;
+}
+
+/**
+ * Reads the session behind a cookie. Ordinary requests slide the idle deadline; background
+ * requests (`extend: false`) only read, so a page refreshing itself keeps no one signed in.
+ * An ended session is deleted and its end recorded in the access log.
+ */
+export async function resolveSession(
+	token: string,
+	options: { extend: boolean; access: AccessContext }
+): Promise<SessionState> {
+	const [row] = await db()
+		.select({
+			userId: sessions.userId,
+			expires: sessions.expires,
+			createdAt: sessions.createdAt,
+			active: users.active
+		})
+		.from(sessions)
+		.innerJoin(users, eq(users.id, sessions.userId))
+		.where(eq(sessions.sessionToken, token));
+	if (!row) return { state: 'none' };
+	const now = new Date();
+	const ended = sessionEnd(row, now);
+	if (ended) {
+		await db().transaction(async (tx) => {
+			await tx.delete(sessions).where(eq(sessions.sessionToken, token));
+			await recordAccess(
+				tx,
+				{ ...options.access, userId: row.userId },
+				{
+					action: 'session.expired',
+					outcome: 'refused',
+					target: { type: 'session_end', id: ended }
+				}
+			);
+		});
+		return { state: 'ended', userId: row.userId, reason: ended };
+	}
+	const idleDeadline = new Date(now.getTime() + SESSION_IDLE_SECONDS * 1000);
+	const due = idleDeadline.getTime() - row.expires.getTime() >= SESSION_TOUCH_SECONDS * 1000;
+	if (!options.extend || !due) {
+		return { state: 'active', userId: row.userId, expires: row.expires, extended: false };
+	}
+	await db()
+		.update(sessions)
+		.set({ expires: idleDeadline })
+		.where(eq(sessions.sessionToken, token));
+	return { state: 'active', userId: row.userId, expires: idleDeadline, extended: true };
+}
+
+/** The signed-in person as routes and services see her, acting in the chosen organisation. */
+export async function loadActor(
+	userId: string,
+	chosenOrganisationId: string | null
+): Promise<Actor | null> {
+	const [user] = await db()
+		.select({ id: users.id, email: users.email, name: users.name, active: users.active })
+		.from(users)
+		.where(eq(users.id, userId));
+	if (!user || !user.active) return null;
+	const rows = await db()
+		.select({
+			organisationId: memberships.organisationId,
+			organisationName: organisations.name,
+			kind: organisations.kind,
+			role: memberships.role
+		})
+		.from(memberships)
+		.innerJoin(organisations, eq(organisations.id, memberships.organisationId))
+		.where(and(eq(memberships.userId, userId), eq(memberships.active, true)))
+		.orderBy(asc(organisations.name), asc(memberships.role));
+	const held: Membership[] = rows.map((r) => ({
+		organisationId: r.organisationId,
+		organisationName: r.organisationName,
+		kind: r.kind as OrganisationKind,
+		role: r.role as MemberRole
+	}));
+	const chosen = held.find((m) => m.organisationId === chosenOrganisationId);
+	const [client] = await db()
+		.select({ id: clients.id })
+		.from(clients)
+		.where(eq(clients.userId, userId));
+	return {
+		userId: user.id,
+		email: user.email,
+		name: user.name,
+		memberships: held,
+		// She is a client when a studio's client record names her (clients.user_id).
+		clientId: client?.id ?? null,
+		activeOrganisationId: chosen?.organisationId ?? held[0]?.organisationId ?? null
+	};
+}
+
+/** The role string for the access log: every role she holds where she acts (e.g. admin+instructor). */
+export function accessRole(actor: Actor): string | null {
+	const roles = actor.memberships
+		.filter((m) => m.organisationId === actor.activeOrganisationId)
+		.map((m) => m.role);
+	if (roles.length > 0) return roles.join('+');
+	return actor.clientId || actor.memberships.length === 0 ? 'client' : null;
+}
+
+/** Who an address belongs to and whether a sign-in link may be sent there. */
+export async function signInEligibility(
+	email: string
+): Promise<{ userId: string | null; eligible: boolean }> {
+	const [user] = await db()
+		.select({ id: users.id, active: users.active })
+		.from(users)
+		.where(eq(users.email, email.toLowerCase()));
+	return { userId: user?.id ?? null, eligible: Boolean(user?.active) };
+}
+
+/** The hash Auth.js stores for a sign-in token: SHA-256 of token and secret, hex. */
+export function signInTokenHash(token: string): string {
+	return createHash('sha256').update(`${token}${config().AUTH_SECRET}`).digest('hex');
+}
+
+/** The part of the token hash the access log keeps, so a reused link can be recognised. */
+export const linkLogId = (tokenHash: string) => tokenHash.slice(0, 32);
+
+export type LinkState = 'valid' | 'expired' | 'used' | 'invalid';
+
+/** Tells a usable sign-in link from an expired, used or altered one — without using it up. */
+export async function inspectSignInLink(email: string, token: string): Promise<LinkState> {
+	if (!email || !token) return 'invalid';
+	const hash = signInTokenHash(token);
+	const [row] = await db()
+		.select({ expires: verificationTokens.expires })
+		.from(verificationTokens)
+		.where(
+			and(
+				eq(verificationTokens.identifier, email.toLowerCase()),
+				eq(verificationTokens.token, hash)
+			)
+		);
+	if (row) return row.expires.getTime() > Date.now() ? 'valid' : 'expired';
+	const [used] = await db()
+		.select({ id: accessLog.id })
+		.from(accessLog)
+		.where(
+			and(
+				gt(accessLog.at, sql`now() - interval '1 day'`),
+				eq(accessLog.targetType, 'signin_link'),
+				eq(accessLog.targetId, linkLogId(hash)),
+				inArray(accessLog.action, ['signin.succeeded', 'signin.refused'])
+			)
+		)
+		.orderBy(desc(accessLog.id))
+		.limit(1);
+	return used ? 'used' : 'invalid';
+}
+
+/** One access-log row for a sign-in event; the person is found by address when known. */
+export async function recordSignInEvent(
+	access: AccessContext,
+	event: {
+		action: AuditAction;
+		outcome: AuditOutcome;
+		email?: string | null;
+		userId?: string | null;
+		target?: { type: string; id: string };
+	}
+): Promise<void> {
+	let userId = event.userId ?? null;
+	if (!userId && event.email) userId = (await signInEligibility(event.email)).userId;
+	await db().transaction((tx) =>
+		recordAccess(
+			tx,
+			{ ...access, userId },
+			{ action: event.action, outcome: event.outcome, target: event.target }
+		)
+	);
+}
+
+/** The person behind a session cookie, without touching the session (for sign-out logging). */
+export async function sessionOwner(token: string): Promise<string | null> {
+	const [row] = await db()
+		.select({ userId: sessions.userId })
+		.from(sessions)
+		.where(eq(sessions.sessionToken, token));
+	return row?.userId ?? null;
+}

@@ -1,0 +1,9 @@
+import { requirePageCaller } from '$lib/server/context';
+import { forPage } from '$lib/server/people/forms';
+import { summariseArea } from '$lib/server/people/service';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	const caller = requirePageCaller(locals, url);
+	return { summary: await forPage(summariseArea(caller, 'admin')) };
+};

@@ -1,0 +1,234 @@
+// The authorization matrix: every page, form action and API endpoint found in src/routes,
+// called as every demo actor and as an anonymous visitor, against the table in
+// ./authorization-matrix.ts. A new route without a row fails the first test.
+import { randomBytes } from 'node:crypto';
+import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import type { AddressInfo } from 'node:net';
+import { eq, inArray, sql } from 'drizzle-orm';
+import { createServer, type ViteDevServer } from 'vite';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { db } from '../../src/lib/server/db';
+import { accessLog, sessions, users } from '../../src/lib/server/db/schema';
+import { seedDemo } from '../../src/lib/server/demo/seed';
+import {
+	MATRIX as CORE_ROWS,
+	PEOPLE,
+	type Actor,
+	type Expected,
+	type Row
+} from './authorization-matrix';
+import { CLIENT_ROWS } from './matrix-rows/clients';
+import { REFERRAL_ROWS } from './matrix-rows/referrals';
+
+// The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
+const MATRIX: Row[] = [...CORE_ROWS, ...CLIENT_ROWS, ...REFERRAL_ROWS];
+
+const ROUTES = 'src/routes';
+
+interface Endpoint {
+	route: string;
+	call: string;
+}
+
+/** Every page (GET), form action (POST ?/name) and endpoint method the code defines. */
+function discoverEndpoints(dir = ROUTES): Endpoint[] {
+	const found: Endpoint[] = [];
+	for (const name of readdirSync(dir)) {
+		const path = join(dir, name);
+		if (statSync(path).isDirectory()) {
+			found.push(...discoverEndpoints(path));
+			continue;
+		}
+		const route = '/' + relative(ROUTES, dir).split('\\').join('/');
+		const id = route === '/' ? '/' : route.replace(/\/$/, '');
+		const source = () => readFileSync(path, 'utf8');
+		if (name === '+page.svelte') found.push({ route: id, call: 'GET' });
+		if (name === '+page.server.ts' || name === '+page.server.js') {
+			for (const action of actionNames(source()))
+				found.push({ route: id, call: `POST ?/${action}` });
+		}
+		if (name === '+server.ts' || name === '+server.js') {
+			const methods = source().matchAll(
+				/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g
+			);
+			for (const [, method] of methods) found.push({ route: id, call: method! });
+		}
+	}
+	return found;
+}
+
+/**
+ * The keys of `export const actions = { … }`, read from the source: the object's own text
+ * (nested brackets left out) split at its top-level commas, each piece's leading name.
+ */
+function actionNames(code: string): string[] {
+	const source = code.replace(/\/\*[\s\S]*?\*\//g, '').replace(/^\s*\/\/.*$/gm, '');
+	const start = source.search(/export\s+const\s+actions\b/);
+	if (start < 0) return [];
+	const open = source.indexOf('{', source.indexOf('=', start));
+	let depth = 0;
+	let own = '';
+	for (let i = open; i < source.length; i++) {
+		const c = source[i]!;
+		if ('{[('.includes(c)) depth++;
+		if (depth === 1 && i > open) own += c;
+		if ('}])'.includes(c)) depth--;
+		if (depth === 0) break;
+	}
+	return own
+		.split(',')
+		.map((piece) => piece.match(/^\s*(?:async\s+)?([A-Za-z_$][\w$]*)\s*[:(]/)?.[1])
+		.filter((name): name is string => Boolean(name));
+}
+
+const key = (e: Endpoint) => `${e.call.padEnd(18)} ${e.route}`;
+
+/** Samples like `<client:Hana Lindqvist>` name a demo record; its id is looked up once. */
+const sampleIds = new Map<string, string>();
+
+async function resolveSamples(rows: Row[]): Promise<void> {
+	for (const row of rows) {
+		for (const value of Object.values(row.sample ?? {})) {
+			const match = /^<(\w+):(.+)>$/.exec(value);
+			if (!match || sampleIds.has(value)) continue;
+			const [, kind, name] = match;
+			const lookups: Record<string, ReturnType<typeof sql>> = {
+				client: sql`select id from clients where name = ${name} limit 1`,
+				// A demo client's referral (one each: see src/lib/server/demo/referrals.ts).
+				referral: sql`select r.id from referrals r join clients c on c.id = r.client_id
+					where c.name = ${name} limit 1`
+			};
+			const lookup = lookups[kind!];
+			if (!lookup) throw new Error(`unknown sample kind ${kind}`);
+			const found = await db().execute<{ id: string }>(lookup);
+			if (!found.rows[0]) throw new Error(`no demo ${kind} named ${name}`);
+			sampleIds.set(value, found.rows[0].id);
+		}
+	}
+}
+
+function pathOf(row: Row): string {
+	let path = row.route.replace(/\/\([^)]+\)/g, '');
+	path = path.replace(/\[(?:\.\.\.)?([^\]]+)\]/g, (_, name: string) => {
+		const value = row.sample?.[name];
+		if (!value) throw new Error(`row ${row.call} ${row.route} needs sample.${name}`);
+		return encodeURIComponent(sampleIds.get(value) ?? value);
+	});
+	return path || '/';
+}
+
+let server: ViteDevServer;
+let origin: string;
+const cookies = new Map<Actor, string>();
+const userIds = new Map<Actor, string>();
+
+beforeAll(async () => {
+	const [known] = await db()
+		.select({ id: users.id })
+		.from(users)
+		.where(eq(users.email, 'admin@studio.example'));
+	if (!known) await seedDemo(db());
+	await resolveSamples(MATRIX);
+	const people = await db()
+		.select({ id: users.id, email: users.email })
+		.from(users)
+		.where(inArray(users.email, [...PEOPLE]));
+	for (const person of people) {
+		const token = randomBytes(32).toString('hex');
+		await db()
+			.insert(sessions)
+			.values({
+				sessionToken: token,
+				userId: person.id,
+				expires: new Date(Date.now() + 30 * 60 * 1000)
+			});
+		cookies.set(person.email as Actor, `authjs.session-token=${token}`);
+		userIds.set(person.email as Actor, person.id);
+	}
+	server = await createServer({
+		configFile: 'vite.config.ts',
+		logLevel: 'error',
+		server: { host: '127.0.0.1', port: 0, strictPort: false, hmr: false, watch: null }
+	});
+	await server.listen();
+	origin = `http://127.0.0.1:${(server.httpServer!.address() as AddressInfo).port}`;
+	// The first request compiles the app; do it once before the timed calls.
+	await fetch(`${origin}/`);
+}, 120_000);
+
+afterAll(async () => {
+	await server?.close();
+});
+
+async function call(row: Row, actor: Actor): Promise<{ status: number; location: string }> {
+	const headers: Record<string, string> = { accept: 'text/html', origin };
+	const cookie = cookies.get(actor);
+	if (cookie) headers.cookie = cookie;
+	const path = pathOf(row);
+	const init: RequestInit = { method: 'GET', headers, redirect: 'manual' };
+	let url = `${origin}${path}`;
+	if (row.call.startsWith('POST ?/')) {
+		const action = row.call.slice('POST ?/'.length);
+		url += action === 'default' ? '' : `?/${action}`;
+		init.method = 'POST';
+		headers['content-type'] = 'application/x-www-form-urlencoded';
+		init.body = '';
+	} else if (row.call !== 'GET') {
+		init.method = row.call;
+		headers['content-type'] = 'application/json';
+		headers.accept = 'application/json';
+		init.body = '{}';
+	}
+	if (row.route.startsWith('/api/')) headers.accept = 'application/json';
+	const response = await fetch(url, init);
+	await response.arrayBuffer();
+	return { status: response.status, location: response.headers.get('location') ?? '' };
+}
+
+function matches(expected: Expected, got: { status: number; location: string }): boolean {
+	if (expected === 'signin') return got.status === 303 && got.location.startsWith('/signin');
+	if (expected === 'redirect') {
+		return [302, 303].includes(got.status) && !got.location.startsWith('/signin?callbackUrl');
+	}
+	return got.status === expected;
+}
+
+async function refusalsOf(userId: string): Promise<number> {
+	const [row] = await db()
+		.select({ n: sql<number>`count(*)::int` })
+		.from(accessLog)
+		.where(sql`${accessLog.actorUserId} = ${userId} and ${accessLog.outcome} <> 'success'`);
+	return row?.n ?? 0;
+}
+
+describe('authorization matrix', () => {
+	it('has a row for every page, form action and endpoint in src/routes (and no stale rows)', () => {
+		const inCode = new Set(discoverEndpoints().map(key));
+		const inTable = new Set(MATRIX.map((r) => key(r)));
+		const missing = [...inCode].filter((k) => !inTable.has(k)).sort();
+		const stale = [...inTable].filter((k) => !inCode.has(k)).sort();
+		expect(missing, 'routes without a row in authorization-matrix.ts').toEqual([]);
+		expect(stale, 'rows for routes that no longer exist').toEqual([]);
+	});
+
+	it('answers every row as expected for every actor, and logs each refusal', async () => {
+		const wrong: string[] = [];
+		for (const row of MATRIX) {
+			for (const actor of ['anonymous', ...PEOPLE] as Actor[]) {
+				const expected = row.expect[actor];
+				const userId = userIds.get(actor);
+				const before = expected === 404 && userId ? await refusalsOf(userId) : 0;
+				const got = await call(row, actor);
+				if (!matches(expected, got)) {
+					wrong.push(
+						`${row.call} ${pathOf(row)} as ${actor}: expected ${expected}, got ${got.status} ${got.location}`
+					);
+				} else if (expected === 404 && userId && (await refusalsOf(userId)) <= before) {
+					wrong.push(`${row.call} ${pathOf(row)} as ${actor}: refused but not in the access log`);
+				}
+			}
+		}
+		expect(wrong).toEqual([]);
+	}, 300_000);
+});
