@@ -1,6 +1,8 @@
 import { sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { memberships, organisations, users } from '../db/schema';
+import { seedDemoClients } from './clients';
+import { seedDemoReferrals } from './referrals';
 import { demoOrganisations, demoPeople, type DemoOrganisationKey } from './scenario';
 
 /** True when no organisation exists yet: `npm start` loads the demo only into an empty database. */
@@ -22,17 +24,21 @@ export async function seedDemo(database: Database): Promise<void> {
 				.returning({ id: organisations.id });
 			orgIds[key] = row!.id;
 		}
+		const userIdsByEmail: Record<string, string> = {};
 		for (const person of demoPeople) {
 			const [user] = await tx
 				.insert(users)
 				.values({ email: person.email, name: person.name })
 				.returning({ id: users.id });
+			userIdsByEmail[person.email] = user!.id;
 			for (const { organisation, role } of person.roles) {
 				await tx
 					.insert(memberships)
 					.values({ userId: user!.id, organisationId: orgIds[organisation], role });
 			}
 		}
+		await seedDemoClients(tx, orgIds, userIdsByEmail);
+		await seedDemoReferrals(tx, orgIds, userIdsByEmail);
 	});
 }
 

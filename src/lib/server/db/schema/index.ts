@@ -2,3 +2,5 @@ export * from './auth';
 export * from './organisations';
 export * from './audit';
 export * from './outbox';
+export * from './clients';
+export * from './sharing';

@@ -1,0 +1,46 @@
+import type { Outcome, ReferTo, TrendDirection } from '$lib/domain';
+
+// Words the screens use for stored codes, in one place.
+
+export const OUTCOME_LABELS: Record<Outcome, string> = {
+	within_limit: 'Within the limit',
+	monitor: 'Monitor',
+	refer: 'Refer'
+};
+
+/** The client's own view: what the outcome means for her, without jargon. */
+export const OUTCOME_PLAIN: Record<Outcome, string> = {
+	within_limit: 'The gap was within the usual limit at every place checked.',
+	monitor: 'Your instructor will keep an eye on this at your next screenings.',
+	refer: 'Your instructor suggests seeing a health professional about this.'
+};
+
+export const REFER_TO_LABELS: Record<ReferTo, string> = {
+	physio: 'a pelvic-health physiotherapist',
+	medical: 'a doctor'
+};
+
+export const DIRECTION_LABELS: Record<TrendDirection, string> = {
+	improving: 'Narrowing',
+	steady: 'Steady',
+	widening: 'Widening'
+};
+
+export const DEPTH_LABELS = { shallow: 'Shallow', moderate: 'Moderate', deep: 'Deep' } as const;
+export const TENSION_LABELS = { firm: 'Firm', soft: 'Soft' } as const;
+export const DELIVERY_LABELS = { vaginal: 'Vaginal', caesarean: 'Caesarean' } as const;
+
+/** "+0.5", "−1", "0" finger widths. */
+export function signed(value: number): string {
+	if (value === 0) return '0';
+	return value > 0 ? `+${value}` : `−${Math.abs(value)}`;
+}
+
+export function formatDate(value: string | Date): string {
+	return new Date(value).toLocaleDateString('en-GB', {
+		day: 'numeric',
+		month: 'short',
+		year: 'numeric',
+		timeZone: 'UTC'
+	});
+}

@@ -1,0 +1,277 @@
+import { z } from 'zod';
+import {
+	DEPTHS,
+	FINGER_WIDTH_MAX,
+	FINGER_WIDTH_MIN,
+	isValidFingerWidth,
+	RED_FLAGS,
+	SITES,
+	TENSIONS
+} from '$lib/domain';
+
+// Input schemas for client records and screenings, shared by the JSON API, the form actions
+// and the browser (so this module must stay free of server imports). The API reads JSON
+// into them directly; the forms first turn FormData into the same shape (see ./form.ts).
+
+export const DELIVERIES = ['vaginal', 'caesarean'] as const;
+export const CONSENT_METHODS = ['in_person', 'signed_form', 'online'] as const;
+export type ConsentMethod = (typeof CONSENT_METHODS)[number];
+
+export const CONSENT_METHOD_LABELS: Record<ConsentMethod, string> = {
+	in_person: 'In person',
+	signed_form: 'Signed form',
+	online: 'Online'
+};
+
+/** A few minutes' grace for clocks that run slightly ahead of the server's. */
+const FUTURE_GRACE_MS = 5 * 60_000;
+const MS_PER_DAY = 86_400_000;
+
+/** Strings refuse NUL characters, which PostgreSQL cannot store in text. */
+const text = (max = 2000) =>
+	z
+		.string({ error: 'must be text' })
+		.max(max, `at most ${max} characters`)
+		.refine((s) => !s.includes('\u0000'), 'must not contain NUL characters');
+
+const optionalText = (max = 2000) =>
+	text(max)
+		.transform((s) => s.trim())
+		.transform((s) => (s === '' ? null : s))
+		.nullable()
+		.optional();
+
+const requiredText = (max = 200) =>
+	text(max)
+		.transform((s) => s.trim())
+		.pipe(z.string().min(1, 'required'));
+
+const number = (what = 'a number') =>
+	z.number({
+		error: (issue) => (issue.input === undefined ? 'required' : `must be ${what}`)
+	});
+
+const todayUtc = () => new Date().toISOString().slice(0, 10);
+
+/** A calendar day, YYYY-MM-DD. */
+const day = z.iso.date({ error: 'must be a date (YYYY-MM-DD)' });
+
+const dayNotAfterToday = day.refine((value) => value <= todayUtc(), 'must not be in the future');
+
+/**
+ * When something happened: a full timestamp with its offset, or a calendar day. A day alone
+ * reads as noon UTC that day, or as now when that is earlier — so "today" entered in any time
+ * zone is never in the future. A day up to one ahead of UTC is accepted for zones east of it.
+ */
+export const pastMoment = z
+	.union([z.iso.datetime({ offset: true }), day], {
+		error: 'must be a date (YYYY-MM-DD) or a date and time with its offset'
+	})
+	.transform((value, ctx) => {
+		const now = Date.now();
+		if (value.length === 10) {
+			const noon = Date.parse(`${value}T12:00:00Z`);
+			const tomorrow = Date.parse(`${todayUtc()}T00:00:00Z`) + MS_PER_DAY;
+			if (noon > tomorrow + MS_PER_DAY) {
+				ctx.addIssue({ code: 'custom', message: 'must not be in the future' });
+				return z.NEVER;
+			}
+			return new Date(Math.min(noon, now));
+		}
+		const at = new Date(value);
+		if (at.getTime() > now + FUTURE_GRACE_MS) {
+			ctx.addIssue({ code: 'custom', message: 'must not be in the future' });
+			return z.NEVER;
+		}
+		return at;
+	});
+
+export const siteMeasureSchema = z.object({
+	widthFingers: number('a number of finger widths').refine(
+		isValidFingerWidth,
+		`must be ${FINGER_WIDTH_MIN} to ${FINGER_WIDTH_MAX} finger widths in half steps`
+	),
+	widthMm: number('a number of millimetres')
+		.min(0, 'must be 0 or more')
+		.max(300, 'must be at most 300 mm')
+		.nullable()
+		.optional(),
+	depth: z.enum(DEPTHS, { error: `must be one of ${DEPTHS.join(', ')}` }),
+	tension: z.enum(TENSIONS, { error: `must be one of ${TENSIONS.join(', ')}` }),
+	doming: z.boolean({ error: 'must be yes or no' })
+});
+
+/**
+ * Refuses any value, for keys a schema does not know: each gets its own issue at its own path
+ * (zod's strict mode reports them all at the parent, which names no field).
+ */
+const refused = (message: string) => z.custom<never>(() => false, { error: message });
+
+const siteShape = Object.fromEntries(SITES.map((site) => [site, siteMeasureSchema])) as Record<
+	(typeof SITES)[number],
+	typeof siteMeasureSchema
+>;
+
+/** Every site is required; a site we do not know is named by its own pointer. */
+export const sitesSchema = z
+	.object(siteShape, { error: 'must give all three sites' })
+	.catchall(refused('unknown site'))
+	.transform((sites) => ({
+		above_navel: sites.above_navel,
+		at_navel: sites.at_navel,
+		below_navel: sites.below_navel
+	}));
+
+export const screeningInputSchema = z.object({
+	takenAt: pastMoment,
+	sites: sitesSchema,
+	redFlags: z
+		.array(z.enum(RED_FLAGS, { error: 'unknown red-flag code' }), {
+			error: 'must be a list of red-flag codes'
+		})
+		.max(RED_FLAGS.length)
+		.default([])
+		.transform((flags) => [...new Set(flags)]),
+	notes: optionalText(4000)
+});
+export type ScreeningInputData = z.infer<typeof screeningInputSchema>;
+
+export const intakeConsentSchema = z.object({
+	at: pastMoment,
+	method: z.enum(CONSENT_METHODS, { error: `must be one of ${CONSENT_METHODS.join(', ')}` })
+});
+
+const thisYear = () => new Date().getUTCFullYear();
+
+const clientCommon = {
+	name: requiredText(200),
+	email: text(254)
+		.transform((s) => s.trim().toLowerCase())
+		.pipe(z.union([z.literal(''), z.email('not a valid e-mail address')]))
+		.transform((s) => (s === '' ? null : s))
+		.nullable()
+		.optional(),
+	birthYear: number('a year')
+		.int('must be a whole year')
+		.min(1900, 'must be 1900 or later')
+		.refine((year) => year <= thisYear() - 10, 'must be at least ten years ago')
+		.nullable()
+		.optional(),
+	notes: optionalText(4000)
+};
+
+/** A due date may lie up to 44 weeks ahead, or up to 6 weeks behind (a late birth not yet recorded). */
+const dueDate = day.refine((value) => {
+	const due = Date.parse(`${value}T00:00:00Z`);
+	const today = Date.parse(`${todayUtc()}T00:00:00Z`);
+	return due <= today + 44 * 7 * MS_PER_DAY && due >= today - 6 * 7 * MS_PER_DAY;
+}, 'must be within 44 weeks from today and not more than 6 weeks ago');
+
+export const pregnantFields = z.object({
+	...clientCommon,
+	stage: z.literal('pregnant'),
+	dueDate
+});
+
+export const postpartumFields = z.object({
+	...clientCommon,
+	stage: z.literal('postpartum'),
+	birthDate: dayNotAfterToday,
+	delivery: z.enum(DELIVERIES, { error: `must be one of ${DELIVERIES.join(', ')}` }),
+	births: number('a whole number')
+		.int('must be a whole number')
+		.min(1, 'must be 1 or more')
+		.max(20, 'must be at most 20'),
+	multiples: z.boolean({ error: 'must be yes or no' }),
+	postnatalCheckOn: dayNotAfterToday.nullable().optional(),
+	postnatalCleared: z.boolean({ error: 'must be yes or no' }).nullable().optional()
+});
+
+const stageError = { error: 'must be pregnant or postpartum' };
+
+/** The client record's own fields, either stage. */
+export const clientFieldsSchema = z
+	.discriminatedUnion('stage', [pregnantFields, postpartumFields], stageError)
+	.superRefine((value, ctx) => {
+		if (value.stage !== 'postpartum' || !value.postnatalCheckOn) return;
+		if (value.postnatalCheckOn < value.birthDate) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['postnatalCheckOn'],
+				message: 'must not be before the birth date'
+			});
+		}
+	});
+export type ClientFields = z.infer<typeof clientFieldsSchema>;
+
+/** POST /api/v1/clients and the new-client form. */
+export const clientCreateSchema = z
+	.discriminatedUnion(
+		'stage',
+		[
+			pregnantFields.extend({
+				intakeConsent: intakeConsentSchema.nullable().optional(),
+				organisationId: z.uuid('must be an organisation id').optional()
+			}),
+			postpartumFields.extend({
+				intakeConsent: intakeConsentSchema.nullable().optional(),
+				organisationId: z.uuid('must be an organisation id').optional()
+			})
+		],
+		stageError
+	)
+	.superRefine((value, ctx) => {
+		if (value.stage !== 'postpartum' || !value.postnatalCheckOn) return;
+		if (value.postnatalCheckOn < value.birthDate) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['postnatalCheckOn'],
+				message: 'must not be before the birth date'
+			});
+		}
+	});
+export type ClientCreateInput = z.infer<typeof clientCreateSchema>;
+
+/**
+ * PATCH /api/v1/clients/{id}: any of the record's fields, and the intake consent. The service
+ * merges the patch into the record and checks the whole with `clientFieldsSchema`.
+ */
+const patchShape = {
+	name: z.unknown(),
+	email: z.unknown(),
+	birthYear: z.unknown(),
+	notes: z.unknown(),
+	stage: z.unknown(),
+	dueDate: z.unknown(),
+	birthDate: z.unknown(),
+	delivery: z.unknown(),
+	births: z.unknown(),
+	multiples: z.unknown(),
+	postnatalCheckOn: z.unknown(),
+	postnatalCleared: z.unknown(),
+	intakeConsent: intakeConsentSchema.optional()
+};
+
+export const clientPatchSchema = z.object(patchShape).partial().catchall(refused('unknown field'));
+/** A patch as the service takes it: record fields (checked after merging) and the consent. */
+export type ClientPatchInput = Record<string, unknown> & {
+	intakeConsent?: z.infer<typeof intakeConsentSchema>;
+};
+
+export const NEEDS = ['referral', 'screening'] as const;
+export type Needs = (typeof NEEDS)[number];
+export const CLIENT_SORTS = ['name', 'lastScreenedAt'] as const;
+export type ClientSort = (typeof CLIENT_SORTS)[number];
+
+/** GET /api/v1/clients query (limit and cursor are added on the server). */
+export const clientListFilterSchema = z.object({
+	search: text(100)
+		.transform((s) => s.trim())
+		.optional(),
+	needs: z.enum(NEEDS, { error: 'must be referral or screening' }).optional(),
+	sort: z.enum(CLIENT_SORTS, { error: 'must be name or lastScreenedAt' }).default('name')
+});
+export type ClientListFilter = z.infer<typeof clientListFilterSchema>;
+
+/** "Needs a screening": none in this many weeks (or never). */
+export const SCREENING_DUE_WEEKS = 8;

@@ -1,0 +1,79 @@
+import type {
+	ChartPoint,
+	EarlyScreenWarning,
+	Outcome,
+	RedFlag,
+	ScreeningReason,
+	Site,
+	SiteMeasure,
+	SiteTrend
+} from '$lib/domain';
+
+// What the client services answer, shared with the pages and the browser.
+
+export interface ClientSummary {
+	id: string;
+	name: string;
+	email: string | null;
+	stage: 'pregnant' | 'postpartum';
+	lastScreenedAt: string | null;
+	lastOutcome: Outcome | null;
+}
+
+export interface ClientDetail extends ClientSummary {
+	organisationId: string;
+	birthYear: number | null;
+	dueDate: string | null;
+	birthDate: string | null;
+	delivery: 'vaginal' | 'caesarean' | null;
+	births: number | null;
+	multiples: boolean | null;
+	postnatalCheckOn: string | null;
+	postnatalCleared: boolean | null;
+	notes: string | null;
+	intakeConsent: { at: string; method: string; takenBy: string | null } | null;
+	/** Whether a person is linked to the record (she has been invited to sign in). */
+	signInLinked: boolean;
+	/** Weeks of gestation or weeks since the birth, today. */
+	weeksNow: number | null;
+}
+
+export interface ScreeningView {
+	id: string;
+	takenAt: string;
+	sites: Record<Site, SiteMeasure>;
+	redFlags: RedFlag[];
+	notes: string | null;
+	stage: 'pregnant' | 'postpartum';
+	weeksPostpartum: number | null;
+	weeksOfGestation: number | null;
+	outcome: Outcome;
+	reasons: ScreeningReason[];
+	warnings: EarlyScreenWarning[];
+	rulesVersion: string;
+}
+
+export interface TrendView {
+	direction: SiteTrend['direction'];
+	changeSinceFirst: number | null;
+	changeSincePrevious: number | null;
+	changePerWeek: number | null;
+}
+
+export type TrendBySite = Record<Site, TrendView>;
+
+export interface ScreeningHistory {
+	items: ScreeningView[];
+	trend: TrendBySite;
+	series: Record<Site, ChartPoint[]>;
+}
+
+export interface RecordedScreening {
+	id: string;
+	outcome: Outcome;
+	reasons: ScreeningReason[];
+	warnings: EarlyScreenWarning[];
+	stage: 'pregnant' | 'postpartum';
+	weeksPostpartum: number | null;
+	weeksOfGestation: number | null;
+}

@@ -1,0 +1,96 @@
+import type { ConsentStatus } from '$lib/domain/consent';
+import type { RedFlag } from '$lib/domain/red-flags';
+import type { ReferralState, Urgency } from '$lib/domain/referral';
+import type { Outcome, ScreeningReason } from '$lib/domain/screening';
+import type { Site, SiteMeasure } from '$lib/domain/sites';
+
+// What the referral services answer, shared with the pages and the browser.
+
+export interface ClinicItem {
+	id: string;
+	name: string;
+	physiotherapists: Array<{ id: string; name: string }>;
+}
+
+export interface ReferralListItem {
+	id: string;
+	state: ReferralState;
+	clientId: string;
+	clinicId: string;
+	physioId: string | null;
+	urgency: Urgency;
+	createdAt: string;
+	sentAt: string | null;
+	clientName: string;
+	studioId: string;
+	studioName: string;
+	clinicName: string;
+	physioName: string | null;
+}
+
+export interface ReferralHistoryEntry {
+	from: ReferralState | null;
+	to: ReferralState;
+	at: string;
+	byName: string | null;
+	byRole: string | null;
+	reason: string | null;
+}
+
+export interface ReferralClient {
+	name: string;
+	birthYear: number | null;
+	stage: 'pregnant' | 'postpartum';
+	dueDate: string | null;
+	birthDate: string | null;
+	delivery: 'vaginal' | 'caesarean' | null;
+	births: number | null;
+	multiples: boolean | null;
+	postnatalCheckOn: string | null;
+	postnatalCleared: boolean | null;
+}
+
+export interface ReferralScreening {
+	id: string;
+	takenAt: string;
+	sites: Record<Site, SiteMeasure>;
+	redFlags: RedFlag[];
+	notes: string | null;
+	stage: 'pregnant' | 'postpartum';
+	weeksPostpartum: number | null;
+	weeksOfGestation: number | null;
+	outcome: Outcome;
+	reasons: ScreeningReason[];
+}
+
+export interface ReferralAction {
+	to: ReferralState;
+	reasonRequired: boolean;
+}
+
+export interface ReferralDetail extends ReferralListItem {
+	reason: string;
+	redFlags: RedFlag[];
+	createdById: string | null;
+	createdByName: string | null;
+	/** Which side the reader stands on. */
+	viewer: 'studio' | 'clinic';
+	/** From the copy the clinic received; for a draft, the record as it is now. */
+	client: ReferralClient;
+	history: ReferralHistoryEntry[];
+	/** The screening history copied when it was sent (for a draft: as it stands now). */
+	screenings: ReferralScreening[];
+	snapshotTakenAt: string | null;
+	sharing: {
+		/** The newest grant between her studio and this clinic. */
+		status: ConsentStatus | 'none';
+		/** When sharing ended; what was shared before stays, labelled with this date. */
+		endedAt: string | null;
+		/** A grant in force covers referral and screenings (what sending needs). */
+		canSend: boolean;
+		/** The clinic may read her live screening history now. */
+		screeningsLive: boolean;
+	};
+	/** The moves the reader may make now (consent is checked again when she makes one). */
+	actions: ReferralAction[];
+}

@@ -1,0 +1,46 @@
+import { error, fail } from '@sveltejs/kit';
+import { earlyScreenWarnings, redFlagsForStage } from '$lib/domain';
+import { screeningFromForm } from '$lib/clients/form';
+import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
+import { mayWriteClient } from '$lib/server/clients/policy';
+import { stageContextAt } from '$lib/server/clients/screening-record';
+import { assertMayWriteClient, getClient, recordScreening } from '$lib/server/clients/service';
+import { requirePageCaller } from '$lib/server/context';
+import { readId } from '$lib/server/http/api';
+import type { Actions, PageServerLoad } from './$types';
+
+function idOf(value: string): string {
+	try {
+		return readId(value);
+	} catch {
+		error(404, 'Not found');
+	}
+}
+
+export const load: PageServerLoad = async ({ locals, url, params }) => {
+	const caller = requirePageCaller(locals, url);
+	const client = await orNotFound(getClient(caller, idOf(params.id)));
+	if (!mayWriteClient(caller.actor, client)) error(404, 'Not found');
+	let warnings: ReturnType<typeof earlyScreenWarnings>;
+	try {
+		warnings = earlyScreenWarnings(stageContextAt(client, new Date()));
+	} catch {
+		warnings = [];
+	}
+	return { client, redFlags: redFlagsForStage(client.stage), warnings };
+};
+
+export const actions: Actions = {
+	default: async ({ locals, url, params, request }) => {
+		const caller = requirePageCaller(locals, url);
+		await orNotFound(assertMayWriteClient(caller, idOf(params.id)));
+		const parsed = screeningFromForm(await request.formData());
+		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		try {
+			const result = await recordScreening(caller, idOf(params.id), parsed.data);
+			return { result };
+		} catch (caught) {
+			return failFromProblem(caught, parsed.values);
+		}
+	}
+};

@@ -1,0 +1,28 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { clientFromForm } from '$lib/clients/form';
+import { failFromProblem } from '$lib/server/clients/actions';
+import { assertMayKeepClients, createClient } from '$lib/server/clients/service';
+import { orNotFound } from '$lib/server/clients/actions';
+import { requirePageCaller } from '$lib/server/context';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	await orNotFound(assertMayKeepClients(requirePageCaller(locals, url)));
+	return {};
+};
+
+export const actions: Actions = {
+	default: async ({ locals, url, request }) => {
+		const caller = requirePageCaller(locals, url);
+		await orNotFound(assertMayKeepClients(caller));
+		const parsed = clientFromForm(await request.formData());
+		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		let id: string;
+		try {
+			({ id } = await createClient(caller, parsed.data));
+		} catch (caught) {
+			return failFromProblem(caught, parsed.values);
+		}
+		redirect(303, `/clients/${id}`);
+	}
+};

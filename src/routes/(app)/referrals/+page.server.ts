@@ -1,0 +1,17 @@
+import { requirePageCaller } from '$lib/server/context';
+import { notHere } from '$lib/server/referrals/not-here';
+import { instructorStudioIds, physioClinicIds } from '$lib/server/referrals/policy';
+import type { PageServerLoad } from './$types';
+
+// The list itself is fetched by the browser from /api/v1/referrals (and refreshed there);
+// the server only says which parts of the page this person has.
+export const load: PageServerLoad = async ({ locals, url }) => {
+	const caller = requirePageCaller(locals, url);
+	const { actor } = caller;
+	const canRefer = instructorStudioIds(actor).length > 0;
+	const canReceive = physioClinicIds(actor).length > 0;
+	if (!canRefer && !canReceive) {
+		await notHere(caller, 'referral.listed', { type: 'route', id: '/(app)/referrals' });
+	}
+	return { canRefer, canReceive };
+};

@@ -1,0 +1,78 @@
+import { fail } from '@sveltejs/kit';
+import { chartSeries, SITES } from '$lib/domain';
+import { transitionFromForm } from '$lib/referrals/form';
+import { consentRequestSchema } from '$lib/referrals/schemas';
+import type { ReferralScreening } from '$lib/referrals/types';
+import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
+import { siteChartGeometry } from '$lib/server/clients/chart';
+import { requestConsent } from '$lib/server/consents/service';
+import { requirePageCaller } from '$lib/server/context';
+import { ProblemError } from '$lib/server/http/problem';
+import { readId } from '$lib/server/http/api';
+import { getReferral, listLiveScreenings, transitionReferral } from '$lib/server/referrals/service';
+import { notHere } from '$lib/server/referrals/not-here';
+import type { AuditAction } from '$lib/server/audit';
+import type { Caller } from '$lib/server/context';
+import type { Actions, PageServerLoad } from './$types';
+
+/** A path id that is not a UUID names no referral: 404, logged like any other refusal. */
+async function idOf(caller: Caller, raw: string, action: AuditAction): Promise<string> {
+	try {
+		return readId(raw);
+	} catch {
+		return notHere(caller, action, { type: 'referral', id: raw });
+	}
+}
+
+export const load: PageServerLoad = async ({ locals, url, params }) => {
+	const caller = requirePageCaller(locals, url);
+	const id = await idOf(caller, params.id, 'referral.read');
+	const referral = await orNotFound(getReferral(caller, id));
+	// The clinic sees her live history only while her consent lasts; the page asks only then,
+	// so a plain view after sharing ended leaves no refusal in the log.
+	let live: ReferralScreening[] | null = null;
+	if (referral.viewer === 'clinic' && referral.sharing.screeningsLive) {
+		live = (await listLiveScreenings(caller, id, { limit: 100 })).items;
+	}
+	const series = chartSeries(live ?? referral.screenings);
+	const charts = SITES.map((site) => ({ site, chart: siteChartGeometry(series[site]) }));
+	return { referral, live, charts };
+};
+
+export const actions: Actions = {
+	transition: async ({ locals, url, params, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const id = await idOf(caller, params.id, 'referral.transitioned');
+		const parsed = transitionFromForm(await request.formData());
+		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		try {
+			const moved = await transitionReferral(caller, id, parsed.data);
+			return { moved: moved.state };
+		} catch (caught) {
+			if (caught instanceof ProblemError && caught.slug === 'consent-required') {
+				return fail(409, {
+					values: parsed.values,
+					errors: { form: caught.init.detail },
+					consentRequired: Boolean(caught.init.requestConsent)
+				});
+			}
+			return failFromProblem(caught, parsed.values);
+		}
+	},
+	requestConsent: async ({ locals, url, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const form = await request.formData();
+		const parsed = consentRequestSchema.safeParse({
+			clientId: form.get('clientId'),
+			clinicId: form.get('clinicId')
+		});
+		if (!parsed.success)
+			return fail(400, { values: {}, errors: { form: 'Missing client or clinic.' } });
+		try {
+			await requestConsent(caller, parsed.data);
+		} catch (caught) {
+			return failFromProblem(caught, {});
+		}
+		return { requested: true };
+	}
+};
