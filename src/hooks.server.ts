@@ -17,6 +17,7 @@ import {
 	signInTokenHash
 } from '$lib/server/people/sessions';
 import { hasRecordedRefusal, recordRefusal } from '$lib/server/audit';
+import { limitRequestBody } from '$lib/server/documents/limits';
 import { startBackgroundWorkers } from '$lib/server/workers';
 
 let stopWorkers: (() => Promise<void>) | undefined;
@@ -222,6 +223,8 @@ const recordUnloggedRefusals: Handle = async ({ event, resolve }) => {
 
 export const handle: Handle = sequence(
 	securityHeaders,
+	// Before anything reads a body: uploads may be 21 MB, every other request 1 MB.
+	limitRequestBody,
 	accessContext,
 	authEvents,
 	authHandle,

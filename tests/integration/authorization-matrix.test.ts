@@ -19,10 +19,11 @@ import {
 	type Row
 } from './authorization-matrix';
 import { CLIENT_ROWS } from './matrix-rows/clients';
+import { DOCUMENT_ROWS } from './matrix-rows/documents';
 import { REFERRAL_ROWS } from './matrix-rows/referrals';
 
 // The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
-const MATRIX: Row[] = [...CORE_ROWS, ...CLIENT_ROWS, ...REFERRAL_ROWS];
+const MATRIX: Row[] = [...CORE_ROWS, ...CLIENT_ROWS, ...REFERRAL_ROWS, ...DOCUMENT_ROWS];
 
 const ROUTES = 'src/routes';
 
@@ -97,7 +98,10 @@ async function resolveSamples(rows: Row[]): Promise<void> {
 				client: sql`select id from clients where name = ${name} limit 1`,
 				// A demo client's referral (one each: see src/lib/server/demo/referrals.ts).
 				referral: sql`select r.id from referrals r join clients c on c.id = r.client_id
-					where c.name = ${name} limit 1`
+					where c.name = ${name} limit 1`,
+				// A demo document, by its file name (see src/lib/server/demo/documents.ts).
+				document: sql`select id from documents where file_name = ${name}
+					order by uploaded_at limit 1`
 			};
 			const lookup = lookups[kind!];
 			if (!lookup) throw new Error(`unknown sample kind ${kind}`);

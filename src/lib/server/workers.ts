@@ -1,15 +1,16 @@
 import { startSealer } from './audit/sealer';
 import { db } from './db';
+import { startDocumentSweeper } from './documents/sweeper';
 import { startOutboxWorker } from './mail/worker';
 
 let running: (() => Promise<void>) | undefined;
 
 /**
- * Starts the background work of one app process: the mail outbox worker and the access
- * log's sealer. Several processes may each run them: the outbox claims rows with
- * FOR UPDATE SKIP LOCKED and the sealer is elected by an advisory lock. Neither throws when
- * the database or the SMTP server is down; they log and try again. Returns a function that
- * stops both and resolves once their work in progress has finished.
+ * Starts the background work of one app process: the mail outbox worker, the access log's
+ * sealer and the sweeper of orphaned document objects. Several processes may each run them:
+ * the outbox claims rows with FOR UPDATE SKIP LOCKED and the sealer is elected by an advisory
+ * lock. None throws when the database, S3 or the SMTP server is down; they log and try again. Returns a function that
+ * stops them all and resolves once their work in progress has finished.
  */
 export function startBackgroundWorkers(): () => Promise<void> {
 	// Started once per process, even if the init hook runs again (dev server reloads).
@@ -17,9 +18,11 @@ export function startBackgroundWorkers(): () => Promise<void> {
 	const database = db();
 	const outbox = startOutboxWorker({ database });
 	const sealer = startSealer(database);
+	// Deleting an orphan twice is harmless, so several processes may sweep side by side.
+	const sweeper = startDocumentSweeper(database);
 	let stopping: Promise<void> | undefined;
 	const stop = () => {
-		stopping ??= Promise.all([outbox.stop(), sealer.stop()]).then(() => {
+		stopping ??= Promise.all([outbox.stop(), sealer.stop(), sweeper.stop()]).then(() => {
 			running = undefined;
 		});
 		return stopping;

@@ -9,13 +9,18 @@ import {
 	referralSnapshots,
 	screenings
 } from '../db/schema';
+import { generateReferralLetter } from '../referrals/letter';
 import { snapshotClient, snapshotScreenings } from '../referrals/snapshot';
+import { seedDemoDocuments } from './documents';
 
 // Demo referrals in the three consent states the authorization matrix checks, all from
 // Linden Row Studio to Fernbank Pelvic Health (invented people, invented reasons):
 //   consent active    — Bea Sorensen: sent, named to physio@clinic.example;
 //   consent withdrawn — Clara Nwosu: was sent, then withdrawn with her consent;
-//   no consent        — Ines Farrow: a draft.
+//   no consent        — Ines Farrow: a draft;
+//   consent active    — Maya Okonjo: accepted by physio@clinic.example, with one document
+//                       shareable with the studio and one clinic-only (./documents.ts).
+// Every referral that was sent has its letter stored, as sending stores it.
 // Hana Lindqvist (client@client.example) is left without any, for the browser tests' own loop.
 
 const DAY_MS = 86_400_000;
@@ -39,7 +44,8 @@ export async function seedDemoReferrals(
 	const plan = [
 		{ name: 'Bea Sorensen', consent: 'active', state: 'sent' },
 		{ name: 'Clara Nwosu', consent: 'withdrawn', state: 'withdrawn' },
-		{ name: 'Ines Farrow', consent: 'none', state: 'draft' }
+		{ name: 'Ines Farrow', consent: 'none', state: 'draft' },
+		{ name: 'Maya Okonjo', consent: 'active', state: 'accepted' }
 	] as const;
 
 	for (const step of plan) {
@@ -83,12 +89,15 @@ export async function seedDemoReferrals(
 				physioId: physio,
 				createdBy: instructor,
 				reason:
-					'Gap still above two finger widths at the navel, with a soft midline on the curl-up.',
+					step.name === 'Maya Okonjo'
+						? 'Pelvic heaviness by the end of class and leaking when she jumps, noted at her last screening.'
+						: 'Gap still above two finger widths at the navel, with a soft midline on the curl-up.',
 				urgency: step.name === 'Bea Sorensen' ? 'soon' : 'routine',
-				redFlags: [],
+				redFlags: step.name === 'Maya Okonjo' ? ['pelvic_heaviness', 'leakage'] : [],
 				state: step.state,
 				createdAt: new Date(now - 6.5 * DAY_MS),
 				sentAt: step.state === 'draft' ? null : sentAt,
+				updatedAt: step.state === 'accepted' ? new Date(now - 5 * DAY_MS) : undefined,
 				consentId
 			})
 			.returning({ id: referrals.id });
@@ -116,6 +125,19 @@ export async function seedDemoReferrals(
 			actorUserId: instructor,
 			actorRole: 'instructor'
 		});
+		// The letter goes with the referral, made from the copy the clinic received.
+		await generateReferralLetter(tx, referralId);
+		if (step.state === 'accepted') {
+			await tx.insert(referralEvents).values({
+				referralId,
+				fromState: 'sent',
+				toState: 'accepted',
+				at: new Date(now - 5 * DAY_MS),
+				actorUserId: physio,
+				actorRole: 'physiotherapist'
+			});
+			await seedDemoDocuments(tx, referralId, physio, new Date(now - 3 * DAY_MS));
+		}
 		if (step.state === 'withdrawn') {
 			await tx.insert(referralEvents).values({
 				referralId,

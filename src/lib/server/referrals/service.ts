@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { SCOPES_TO_SEND_REFERRAL } from '../../domain/consent';
 import {
 	REFERRAL_STATE_LABELS,
+	REFERRAL_STATES,
 	transitionsFrom,
 	type ReferralState,
 	type Transition
@@ -417,6 +418,57 @@ async function logListed(
 				set: { state: item.referral.state, seenAt: new Date() }
 			});
 	}
+}
+
+/** How far back "answered recently" reaches on the dashboards. */
+export const RECENT_ANSWER_DAYS = 14;
+
+export interface ReferralCounts {
+	/** Referrals she may see, per state (a physiotherapist's never include drafts). */
+	byState: Record<ReferralState, number>;
+	/** Accepted or declined within RECENT_ANSWER_DAYS days (by the time of their last move). */
+	acceptedRecently: number;
+	declinedRecently: number;
+}
+
+/**
+ * Policy: mayListReferrals (the same visibility as the list). Audit: none — numbers per state
+ * name no client and show no referral; the list they link to logs referral.listed for each
+ * referral shown.
+ */
+export async function countReferrals(caller: Caller): Promise<ReferralCounts> {
+	if (!mayListReferrals(caller.actor)) {
+		return refuse(
+			caller,
+			'referral.listed',
+			new ProblemError('forbidden', {
+				detail: 'Referrals are listed for instructors and physiotherapists.'
+			})
+		);
+	}
+	const since = new Date(Date.now() - RECENT_ANSWER_DAYS * 86_400_000);
+	const recent = sql`${referrals.updatedAt} >= ${since}`;
+	const rows = await db()
+		.select({
+			state: referrals.state,
+			n: sql<number>`count(*)::int`,
+			recent: sql<number>`(count(*) filter (where ${recent}))::int`
+		})
+		.from(referrals)
+		.where(visibility(caller))
+		.groupBy(referrals.state);
+	const byState = Object.fromEntries(REFERRAL_STATES.map((s) => [s, 0])) as Record<
+		ReferralState,
+		number
+	>;
+	let acceptedRecently = 0;
+	let declinedRecently = 0;
+	for (const row of rows) {
+		byState[row.state] = row.n;
+		if (row.state === 'accepted') acceptedRecently = row.recent;
+		if (row.state === 'declined') declinedRecently = row.recent;
+	}
+	return { byState, acceptedRecently, declinedRecently };
 }
 
 // ── One referral ───────────────────────────────────────────────────────────────────────

@@ -13,12 +13,13 @@ import { config } from '../config';
 // hosted S3: through the AWS SDK, path-style addressing.
 
 let client: S3Client | undefined;
+let endpointOverride: string | null = null;
 
 function s3(): S3Client {
 	if (!client) {
 		const c = config();
 		client = new S3Client({
-			endpoint: c.S3_ENDPOINT,
+			endpoint: endpointOverride ?? c.S3_ENDPOINT,
 			region: c.S3_REGION,
 			forcePathStyle: true,
 			credentials: { accessKeyId: c.S3_ACCESS_KEY_ID, secretAccessKey: c.S3_SECRET_ACCESS_KEY },
@@ -32,6 +33,16 @@ function s3(): S3Client {
 }
 
 const bucket = () => config().S3_BUCKET;
+
+/**
+ * Test seam: points this module at another S3 endpoint (an s3rver a test starts and stops on
+ * a port of its own), or back at the configured one with `null`. The app never calls it.
+ */
+export function useS3Endpoint(endpoint: string | null): void {
+	client?.destroy();
+	client = undefined;
+	endpointOverride = endpoint;
+}
 
 export async function putObject(key: string, body: Buffer, contentType: string): Promise<void> {
 	await s3().send(
@@ -70,6 +81,27 @@ export async function listKeys(prefix: string): Promise<string[]> {
 		token = page.IsTruncated ? page.NextContinuationToken : undefined;
 	} while (token);
 	return keys;
+}
+
+export interface StoredObject {
+	key: string;
+	lastModified: Date | null;
+}
+
+/** Every object under `prefix`, with when it was written (the orphan sweeper's grace period). */
+export async function listObjects(prefix: string): Promise<StoredObject[]> {
+	const objects: StoredObject[] = [];
+	let token: string | undefined;
+	do {
+		const page = await s3().send(
+			new ListObjectsV2Command({ Bucket: bucket(), Prefix: prefix, ContinuationToken: token })
+		);
+		for (const item of page.Contents ?? []) {
+			if (item.Key) objects.push({ key: item.Key, lastModified: item.LastModified ?? null });
+		}
+		token = page.IsTruncated ? page.NextContinuationToken : undefined;
+	} while (token);
+	return objects;
 }
 
 /** True when the bucket answers; used by the health check. */

@@ -4,3 +4,4 @@ export * from './audit';
 export * from './outbox';
 export * from './clients';
 export * from './sharing';
+export * from './documents';

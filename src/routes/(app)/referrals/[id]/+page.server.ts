@@ -1,4 +1,5 @@
 import { fail } from '@sveltejs/kit';
+import { z } from 'zod';
 import { chartSeries, SITES } from '$lib/domain';
 import { transitionFromForm } from '$lib/referrals/form';
 import { consentRequestSchema } from '$lib/referrals/schemas';
@@ -7,6 +8,9 @@ import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
 import { siteChartGeometry } from '$lib/server/clients/chart';
 import { requestConsent } from '$lib/server/consents/service';
 import { requirePageCaller } from '$lib/server/context';
+import { documentFailure, documentSuccess } from '$lib/server/documents/forms';
+import { documentPatchSchema, readUploadForm } from '$lib/server/documents/schemas';
+import { getDocumentPanel, updateDocument, uploadDocument } from '$lib/server/documents/service';
 import { ProblemError } from '$lib/server/http/problem';
 import { readId } from '$lib/server/http/api';
 import { getReferral, listLiveScreenings, transitionReferral } from '$lib/server/referrals/service';
@@ -36,7 +40,8 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	}
 	const series = chartSeries(live ?? referral.screenings);
 	const charts = SITES.map((site) => ({ site, chart: siteChartGeometry(series[site]) }));
-	return { referral, live, charts };
+	const documents = await getDocumentPanel(caller, id);
+	return { referral, live, charts, documents };
 };
 
 export const actions: Actions = {
@@ -74,5 +79,41 @@ export const actions: Actions = {
 			return failFromProblem(caught, {});
 		}
 		return { requested: true };
+	},
+	// Without JavaScript the upload is this plain multipart form; with it, the page sends the
+	// same form to POST /api/v1/referrals/{id}/documents to show the upload's progress.
+	upload: async ({ locals, url, params, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const id = await idOf(caller, params.id, 'document.uploaded');
+		const parsed = await readUploadForm(await request.formData());
+		if (!parsed.ok) {
+			return fail(400, {
+				documents: { message: 'Choose a PDF file to upload. Nothing was saved.', ok: false }
+			});
+		}
+		try {
+			await uploadDocument(caller, id, parsed.data);
+		} catch (caught) {
+			return documentFailure(caught);
+		}
+		return documentSuccess(`Uploaded ${parsed.data.fileName}.`);
+	},
+	updateDocument: async ({ locals, url, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const form = await request.formData();
+		const documentId = z.uuid().safeParse(form.get('documentId'));
+		const patch = documentPatchSchema.safeParse({
+			share: form.get('share') ?? undefined,
+			summary: form.get('summary') ?? undefined
+		});
+		if (!patch.success || !documentId.success) {
+			return fail(400, { documents: { message: 'Choose how to share the document.', ok: false } });
+		}
+		try {
+			const updated = await updateDocument(caller, documentId.data, patch.data);
+			return documentSuccess(`Saved the changes to ${updated.name}.`);
+		} catch (caught) {
+			return documentFailure(caught);
+		}
 	}
 };
