@@ -25,6 +25,9 @@ const config = {
 				'frame-ancestors': ['none']
 			}
 		},
+		// Absolute asset paths: the designed 404 page is also served in place of pages a person may
+		// not see, at any depth, so its links to scripts and styles must not be relative.
+		paths: { relative: false },
 		alias: {
 			$domain: 'src/lib/domain'
 		}

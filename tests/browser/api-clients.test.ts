@@ -1,4 +1,5 @@
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import type { APIRequestContext } from '@playwright/test';
+import { expect, test } from './support/test';
 import { signIn } from './support/signin';
 
 // The clients API through the built app: problem details, the consent gate, 404s, isolation.

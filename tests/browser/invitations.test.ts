@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './support/test';
 import { expectAccessible } from './a11y';
 import { countMail, linkIn, signIn, waitForNewMail } from './support/signin';
 

@@ -1,4 +1,5 @@
-import { expect, test, type Browser, type Page } from '@playwright/test';
+import type { Browser, Page } from '@playwright/test';
+import { expect, test } from './support/test';
 import { expectAccessible } from './a11y';
 import { inbox, linkIn, signIn, sql, waitForNewMail } from './support/signin';
 

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './support/test';
 import { expectAccessible } from './a11y';
 
 test('the landing page says what Seamwell is for, with the caution, and is accessible', async ({

@@ -86,6 +86,8 @@ export async function requestSignInLink(page: Page, email: string): Promise<stri
 	await forgetSignInRequests(email);
 	const seen = await countMail(email);
 	await page.goto('/signin');
+	// Pages opened with browser.newPage() lack the fixture's wait: wait for hydration here.
+	await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
 	await page.getByLabel('E-mail address').fill(email);
 	await page.getByRole('button', { name: 'Send me a sign-in link' }).click();
 	await expect(page).toHaveURL(/\/signin\/sent$/);

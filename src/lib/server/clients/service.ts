@@ -181,6 +181,52 @@ function escapeLike(term: string): string {
 	return term.replace(/[\\%_]/g, (c) => `\\${c}`);
 }
 
+/** The `needs` filters, shared by the list and the dashboard's counts so both agree. */
+function needsCondition(needs: NonNullable<ClientListFilter['needs']>): SQL {
+	if (needs === 'referral') return eq(clients.lastOutcome, 'refer');
+	const due = new Date(Date.now() - SCREENING_DUE_WEEKS * 7 * 86_400_000);
+	return or(isNull(clients.lastScreenedAt), lt(clients.lastScreenedAt, due))!;
+}
+
+/** Her studios as an SQL condition on the client's organisation. */
+function inStudios(studios: readonly string[]): SQL {
+	return sql`${clients.organisationId} in (${sql.join(
+		studios.map((s) => sql`${s}::uuid`),
+		sql`, `
+	)})`;
+}
+
+export interface ClientCounts {
+	/** Her studios' client records. */
+	total: number;
+	/** Whose latest screening says refer (the list's `needs=referral`). */
+	needsReferral: number;
+	/** Never screened, or not in SCREENING_DUE_WEEKS weeks (the list's `needs=screening`). */
+	needsScreening: number;
+}
+
+/**
+ * Policy: mayListClients (her studios only). Audit: none — numbers of records name no client
+ * and show none of her data; the list they link to logs client.listed for each client shown.
+ */
+export async function countClients(caller: Caller): Promise<ClientCounts> {
+	if (!mayListClients(caller.actor)) return refuseList(caller, 'client.listed');
+	const mine = inStudios(instructorStudioIds(caller.actor));
+	const [row] = await db()
+		.select({
+			total: sql<number>`count(*)::int`,
+			needsReferral: sql<number>`(count(*) filter (where ${needsCondition('referral')}))::int`,
+			needsScreening: sql<number>`(count(*) filter (where ${needsCondition('screening')}))::int`
+		})
+		.from(clients)
+		.where(mine);
+	return {
+		total: row?.total ?? 0,
+		needsReferral: row?.needsReferral ?? 0,
+		needsScreening: row?.needsScreening ?? 0
+	};
+}
+
 /** Policy: mayListClients (her studios only). Audit: client.listed, one row per client shown. */
 export async function listClients(
 	caller: Caller,
@@ -190,18 +236,9 @@ export async function listClients(
 	const studios = instructorStudioIds(caller.actor);
 	const after = decodeCursor(query.cursor, listCursor);
 
-	const where: SQL[] = [
-		sql`${clients.organisationId} in (${sql.join(
-			studios.map((s) => sql`${s}::uuid`),
-			sql`, `
-		)})`
-	];
+	const where: SQL[] = [inStudios(studios)];
 	if (query.search) where.push(ilike(clients.name, `%${escapeLike(query.search)}%`));
-	if (query.needs === 'referral') where.push(eq(clients.lastOutcome, 'refer'));
-	if (query.needs === 'screening') {
-		const due = new Date(Date.now() - SCREENING_DUE_WEEKS * 7 * 86_400_000);
-		where.push(or(isNull(clients.lastScreenedAt), lt(clients.lastScreenedAt, due))!);
-	}
+	if (query.needs) where.push(needsCondition(query.needs));
 
 	// Oldest screening first (never screened before all), so who is due comes to the top.
 	const lastKey = sql`coalesce(${clients.lastScreenedAt}, '-infinity'::timestamptz)`;

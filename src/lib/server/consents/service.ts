@@ -254,6 +254,47 @@ export async function getConsentOverview(caller: Caller): Promise<ConsentOvervie
 	});
 }
 
+export interface SharingCounts {
+	/** Her grants in force now. */
+	activeGrants: number;
+	/** Requests to share with a clinic she has not answered and does not share with yet. */
+	openRequests: number;
+}
+
+/**
+ * Policy: mayGiveConsent (the client herself). Audit: none — two numbers about her own
+ * grants, shown only to her; her consent page, which they link to, logs consent.read.
+ */
+export async function countOwnSharing(caller: Caller): Promise<SharingCounts> {
+	const { actor } = caller;
+	if (!mayGiveConsent(actor)) {
+		return refuse(
+			caller,
+			'consent.read',
+			new ProblemError('forbidden', { detail: 'Only a client has consents of her own.' })
+		);
+	}
+	const now = new Date();
+	const [grants, requests] = await Promise.all([
+		db()
+			.select()
+			.from(consents)
+			.where(and(eq(consents.clientId, actor.clientId), isNull(consents.withdrawnAt))),
+		db()
+			.select({ clinicId: consentRequests.clinicId })
+			.from(consentRequests)
+			.where(and(eq(consentRequests.clientId, actor.clientId), isNull(consentRequests.answeredAt)))
+	]);
+	// The same rule as her consent page: status from the domain, a request open until she
+	// shares with that clinic.
+	const active = grants.filter((g) => consentStatus(g, now) === 'active');
+	const sharing = new Set(active.map((g) => g.clinicId));
+	return {
+		activeGrants: active.length,
+		openRequests: requests.filter((r) => !sharing.has(r.clinicId)).length
+	};
+}
+
 export interface GiveConsentInput {
 	clinicId: string;
 	scopes: ShareScope[];

@@ -1,9 +1,13 @@
 import { requirePageCaller } from '$lib/server/context';
+import { countOwnSharing } from '$lib/server/consents/service';
 import { forPage } from '$lib/server/people/forms';
 import { summariseArea } from '$lib/server/people/service';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	return { summary: await forPage(summariseArea(caller, 'client')) };
+	const summary = await forPage(summariseArea(caller, 'client'));
+	// Until her studio links her record she has no consents to count.
+	const sharing = summary.clientId ? await forPage(countOwnSharing(caller)) : null;
+	return { summary, sharing };
 };

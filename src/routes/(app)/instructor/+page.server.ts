@@ -1,9 +1,16 @@
 import { requirePageCaller } from '$lib/server/context';
+import { countClients } from '$lib/server/clients/service';
 import { forPage } from '$lib/server/people/forms';
 import { summariseArea } from '$lib/server/people/service';
+import { countReferrals, RECENT_ANSWER_DAYS } from '$lib/server/referrals/service';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	return { summary: await forPage(summariseArea(caller, 'instructor')) };
+	// The area first: someone who is no instructor gets the 404 before anything is counted.
+	const summary = await forPage(summariseArea(caller, 'instructor'));
+	const [clients, referrals] = await forPage(
+		Promise.all([countClients(caller), countReferrals(caller)])
+	);
+	return { summary, clients, referrals, recentDays: RECENT_ANSWER_DAYS };
 };

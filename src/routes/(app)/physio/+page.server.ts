@@ -1,9 +1,13 @@
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/people/forms';
 import { summariseArea } from '$lib/server/people/service';
+import { countReferrals } from '$lib/server/referrals/service';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	return { summary: await forPage(summariseArea(caller, 'physiotherapist')) };
+	// The area first: someone who is no physiotherapist gets the 404 before anything is counted.
+	const summary = await forPage(summariseArea(caller, 'physiotherapist'));
+	const referrals = await forPage(countReferrals(caller));
+	return { summary, referrals };
 };

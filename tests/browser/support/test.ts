@@ -1,0 +1,22 @@
+// Playwright's `test` and `expect`, with one change: `page.goto` of an HTML page returns only
+// once Svelte has hydrated it (the root layout marks <html data-hydrated>). Typing into a
+// server-rendered form before hydration races the framework on a busy machine; a person is
+// slower than that, a test is not.
+import { test as base, expect } from '@playwright/test';
+
+export const test = base.extend({
+	page: async ({ page }, use) => {
+		const goto = page.goto.bind(page);
+		page.goto = async (url, options) => {
+			const response = await goto(url, options);
+			const type = response?.headers()['content-type'] ?? '';
+			if (type.startsWith('text/html')) {
+				await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
+			}
+			return response;
+		};
+		await use(page);
+	}
+});
+
+export { expect };
