@@ -1,5 +1,5 @@
 import { redirect } from '@sveltejs/kit';
-import type { AccessContext } from './audit';
+import { recordRefusal, type AccessContext, type AuditAction } from './audit';
 import type { Actor } from './actor';
 import { ProblemError } from './http/problem';
 
@@ -27,4 +27,19 @@ export function requireApiCaller(locals: App.Locals): Caller {
 		throw new ProblemError('unauthenticated', { detail: 'Sign in to use the Seamwell API.' });
 	}
 	return { actor: locals.actor, access: locals.access };
+}
+
+/**
+ * Records a refused access (in its own transaction, so it survives the caller's rollback)
+ * and throws the answer the caller gets — usually `notFound()`, never a hint that it exists.
+ */
+export async function refuse(
+	caller: Caller,
+	action: AuditAction,
+	answer: ProblemError,
+	target?: { type: string; id: string },
+	clientId?: string | null
+): Promise<never> {
+	await recordRefusal(caller.access, { action, target, clientId: clientId ?? null });
+	throw answer;
 }

@@ -27,14 +27,3 @@ export function failFromProblem(
 function statusOf(problem: ProblemError): number {
 	return problem.toResponse().status;
 }
-
-/** Loads answer the designed 404 page for records the caller may not know of. */
-export async function orNotFound<T>(work: Promise<T>): Promise<T> {
-	try {
-		return await work;
-	} catch (caught) {
-		if (caught instanceof ProblemError && caught.slug === 'not-found') error(404, 'Not found');
-		if (caught instanceof ProblemError && caught.slug === 'forbidden') error(403, caught.message);
-		throw caught;
-	}
-}

@@ -8,9 +8,9 @@ import {
 	type ConsentStatus,
 	type ShareScope
 } from '../../domain/consent';
-import { recordAccess, recordRefusal, type AuditAction } from '../audit';
+import { recordAccess } from '../audit';
 import { config } from '../config';
-import type { Caller } from '../context';
+import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import {
 	clients,
@@ -20,7 +20,7 @@ import {
 	organisations,
 	users
 } from '../db/schema';
-import { notFound, ProblemError } from '../http/problem';
+import { fieldProblem, notFound, ProblemError } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
 import { queueNotification } from '../mail/outbox';
 import { withdrawOpenReferrals } from '../referrals/sharing-ended';
@@ -65,20 +65,6 @@ function toItem(row: ConsentRow, now: Date): ConsentItem {
 		status: consentStatus(row, now)
 	};
 }
-
-async function refuse(
-	caller: Caller,
-	action: AuditAction,
-	error: ProblemError,
-	target?: { type: string; id: string },
-	clientId?: string | null
-): Promise<never> {
-	await recordRefusal(caller.access, { action, target, clientId: clientId ?? null });
-	throw error;
-}
-
-const fieldProblem = (pointer: string, message: string, detail: string) =>
-	new ProblemError('validation-failed', { detail, errors: [{ pointer, message }] });
 
 const listCursor = z.object({ t: z.iso.datetime(), id: z.uuid() });
 

@@ -3,7 +3,7 @@ import { and, asc, eq, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import { recordAccess, recordRefusal, type AuditAction } from '../audit';
 import { sharingState } from '../consents/grants';
-import type { Caller } from '../context';
+import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
 import { documents, referrals, users } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
@@ -59,17 +59,6 @@ export const documentKey = (referralId: string, documentId: string) =>
 	`documents/${referralId}/${documentId}.pdf`;
 
 const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
-
-async function refuse(
-	caller: Caller,
-	action: AuditAction,
-	error: ProblemError,
-	target: { type: string; id: string },
-	clientId?: string | null
-): Promise<never> {
-	await recordRefusal(caller.access, { action, target, clientId: clientId ?? null });
-	throw error;
-}
 
 function storageUnavailable(cause: unknown): ProblemError {
 	console.error('[documents] storage unavailable:', cause);

@@ -90,6 +90,10 @@ export function fieldErrors(error: z.ZodError, prefix = ''): FieldError[] {
 	}));
 }
 
+/** A 422 about one field, for rules zod cannot see (an unknown clinic, a client elsewhere). */
+export const fieldProblem = (pointer: string, message: string, detail: string) =>
+	new ProblemError('validation-failed', { detail, errors: [{ pointer, message }] });
+
 export function validationProblem(error: z.ZodError, prefix = ''): ProblemError {
 	const errors = fieldErrors(error, prefix);
 	return new ProblemError('validation-failed', {

@@ -1,20 +1,8 @@
 import { error, fail, type ActionFailure } from '@sveltejs/kit';
 import { PROBLEM_TYPES, ProblemError } from '../http/problem';
 
-// Pages and form actions call the same services as the JSON API; these turn a service's
-// problem into what a page shows: a 404 page, or a form that says what to fix.
-
-/** Runs a page's service call; a not-found or other problem becomes SvelteKit's error page. */
-export async function forPage<T>(work: Promise<T> | (() => Promise<T> | T)): Promise<T> {
-	try {
-		return await (typeof work === 'function' ? work() : work);
-	} catch (e) {
-		if (e instanceof ProblemError) {
-			error(e.init.status ?? PROBLEM_TYPES[e.slug].status, e.init.detail);
-		}
-		throw e;
-	}
-}
+// Form actions call the same services as the JSON API; these turn a service's problem into a
+// form that says what to fix (pages use http/page.ts forPage).
 
 export type FormErrors = Record<string, string>;
 

@@ -18,7 +18,7 @@ import type {
 } from '$lib/referrals/types';
 import { recordAccess, recordRefusal, type AuditAction } from '../audit';
 import { sharingState } from '../consents/grants';
-import type { Caller } from '../context';
+import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
 import {
 	clients,
@@ -31,7 +31,7 @@ import {
 	screenings,
 	users
 } from '../db/schema';
-import { notFound, ProblemError, type ProblemSlug } from '../http/problem';
+import { fieldProblem, notFound, ProblemError, type ProblemSlug } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
 import { generateReferralLetter } from './letter';
 import { clinicRecipients, instructorRecipient, notifyAll } from './notify';
@@ -54,20 +54,6 @@ import { snapshotClient, snapshotScreenings } from './snapshot';
 // Consent is read fresh, inside the transaction of the move it allows.
 
 type ReferralRow = typeof referrals.$inferSelect;
-
-const fieldProblem = (pointer: string, message: string, detail: string) =>
-	new ProblemError('validation-failed', { detail, errors: [{ pointer, message }] });
-
-async function refuse(
-	caller: Caller,
-	action: AuditAction,
-	error: ProblemError,
-	target?: { type: string; id: string },
-	clientId?: string | null
-): Promise<never> {
-	await recordRefusal(caller.access, { action, target, clientId: clientId ?? null });
-	throw error;
-}
 
 /** A referral the caller may see; anything else is logged as refused and answers 404. */
 async function visibleReferral(

@@ -1,6 +1,6 @@
 import { requirePageCaller } from '$lib/server/context';
 import { countOwnSharing } from '$lib/server/consents/service';
-import { forPage } from '$lib/server/people/forms';
+import { forPage } from '$lib/server/http/page';
 import { summariseArea } from '$lib/server/people/service';
 import type { PageServerLoad } from './$types';
 

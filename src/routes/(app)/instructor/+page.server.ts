@@ -1,6 +1,6 @@
 import { requirePageCaller } from '$lib/server/context';
 import { countClients } from '$lib/server/clients/service';
-import { forPage } from '$lib/server/people/forms';
+import { forPage } from '$lib/server/http/page';
 import { summariseArea } from '$lib/server/people/service';
 import { countReferrals, RECENT_ANSWER_DAYS } from '$lib/server/referrals/service';
 import type { PageServerLoad } from './$types';

@@ -1,9 +1,9 @@
-import { orNotFound } from '$lib/server/clients/actions';
 import { getOwnRecord } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
+import { forPage } from '$lib/server/http/page';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	return orNotFound(getOwnRecord(caller));
+	return forPage(getOwnRecord(caller));
 };

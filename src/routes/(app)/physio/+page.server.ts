@@ -1,5 +1,5 @@
 import { requirePageCaller } from '$lib/server/context';
-import { forPage } from '$lib/server/people/forms';
+import { forPage } from '$lib/server/http/page';
 import { summariseArea } from '$lib/server/people/service';
 import { countReferrals } from '$lib/server/referrals/service';
 import type { PageServerLoad } from './$types';

@@ -1,7 +1,8 @@
 import { fail, type RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { requirePageCaller } from '$lib/server/context';
-import { fieldMessages, forPage, formFailure } from '$lib/server/people/forms';
+import { fieldMessages, formFailure } from '$lib/server/people/forms';
+import { forPage } from '$lib/server/http/page';
 import {
 	changeRoleForm,
 	deactivateForm,

@@ -1,7 +1,7 @@
-import { error, fail } from '@sveltejs/kit';
+import { fail } from '@sveltejs/kit';
 import { SITES, siteLabelCapitalised } from '$lib/domain';
 import { consentFromForm } from '$lib/clients/form';
-import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
+import { failFromProblem } from '$lib/server/clients/actions';
 import { siteChartGeometry } from '$lib/server/clients/chart';
 import {
 	assertMayWriteClient,
@@ -12,22 +12,14 @@ import {
 } from '$lib/server/clients/service';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { requirePageCaller } from '$lib/server/context';
-import { readId } from '$lib/server/http/api';
+import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
-
-function idOf(value: string): string {
-	try {
-		return readId(value);
-	} catch {
-		error(404, 'Not found');
-	}
-}
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
-	const id = idOf(params.id);
-	const client = await orNotFound(getClient(caller, id));
-	const history = await orNotFound(getScreeningHistory(caller, id));
+	const id = pageId(params.id);
+	const client = await forPage(getClient(caller, id));
+	const history = await forPage(getScreeningHistory(caller, id));
 	const charts = SITES.map((site) => ({
 		site,
 		title: siteLabelCapitalised(site),
@@ -39,11 +31,11 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 export const actions: Actions = {
 	consent: async ({ locals, url, params, request }) => {
 		const caller = requirePageCaller(locals, url);
-		await orNotFound(assertMayWriteClient(caller, idOf(params.id)));
+		await forPage(assertMayWriteClient(caller, pageId(params.id)));
 		const parsed = consentFromForm(await request.formData());
 		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
 		try {
-			await updateClient(caller, idOf(params.id), { intakeConsent: parsed.data });
+			await updateClient(caller, pageId(params.id), { intakeConsent: parsed.data });
 		} catch (caught) {
 			return failFromProblem(caught, parsed.values);
 		}
@@ -52,7 +44,7 @@ export const actions: Actions = {
 	invite: async ({ locals, url, params }) => {
 		const caller = requirePageCaller(locals, url);
 		try {
-			const { sentTo } = await inviteClientToSignIn(caller, idOf(params.id));
+			const { sentTo } = await inviteClientToSignIn(caller, pageId(params.id));
 			return { invitedTo: sentTo };
 		} catch (caught) {
 			return failFromProblem(caught, {});

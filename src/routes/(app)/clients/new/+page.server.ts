@@ -2,19 +2,19 @@ import { fail, redirect } from '@sveltejs/kit';
 import { clientFromForm } from '$lib/clients/form';
 import { failFromProblem } from '$lib/server/clients/actions';
 import { assertMayKeepClients, createClient } from '$lib/server/clients/service';
-import { orNotFound } from '$lib/server/clients/actions';
 import { requirePageCaller } from '$lib/server/context';
+import { forPage } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
-	await orNotFound(assertMayKeepClients(requirePageCaller(locals, url)));
+	await forPage(assertMayKeepClients(requirePageCaller(locals, url)));
 	return {};
 };
 
 export const actions: Actions = {
 	default: async ({ locals, url, request }) => {
 		const caller = requirePageCaller(locals, url);
-		await orNotFound(assertMayKeepClients(caller));
+		await forPage(assertMayKeepClients(caller));
 		const parsed = clientFromForm(await request.formData());
 		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
 		let id: string;

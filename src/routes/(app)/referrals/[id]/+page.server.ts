@@ -4,34 +4,22 @@ import { chartSeries, SITES } from '$lib/domain';
 import { transitionFromForm } from '$lib/referrals/form';
 import { consentRequestSchema } from '$lib/referrals/schemas';
 import type { ReferralScreening } from '$lib/referrals/types';
-import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
+import { failFromProblem } from '$lib/server/clients/actions';
 import { siteChartGeometry } from '$lib/server/clients/chart';
 import { requestConsent } from '$lib/server/consents/service';
 import { requirePageCaller } from '$lib/server/context';
+import { forPage, pageId } from '$lib/server/http/page';
 import { documentFailure, documentSuccess } from '$lib/server/documents/forms';
 import { documentPatchSchema, readUploadForm } from '$lib/server/documents/schemas';
 import { getDocumentPanel, updateDocument, uploadDocument } from '$lib/server/documents/service';
 import { ProblemError } from '$lib/server/http/problem';
-import { readId } from '$lib/server/http/api';
 import { getReferral, listLiveScreenings, transitionReferral } from '$lib/server/referrals/service';
-import { notHere } from '$lib/server/referrals/not-here';
-import type { AuditAction } from '$lib/server/audit';
-import type { Caller } from '$lib/server/context';
 import type { Actions, PageServerLoad } from './$types';
-
-/** A path id that is not a UUID names no referral: 404, logged like any other refusal. */
-async function idOf(caller: Caller, raw: string, action: AuditAction): Promise<string> {
-	try {
-		return readId(raw);
-	} catch {
-		return notHere(caller, action, { type: 'referral', id: raw });
-	}
-}
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
-	const id = await idOf(caller, params.id, 'referral.read');
-	const referral = await orNotFound(getReferral(caller, id));
+	const id = pageId(params.id);
+	const referral = await forPage(getReferral(caller, id));
 	// The clinic sees her live history only while her consent lasts; the page asks only then,
 	// so a plain view after sharing ended leaves no refusal in the log.
 	let live: ReferralScreening[] | null = null;
@@ -47,7 +35,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 export const actions: Actions = {
 	transition: async ({ locals, url, params, request }) => {
 		const caller = requirePageCaller(locals, url);
-		const id = await idOf(caller, params.id, 'referral.transitioned');
+		const id = pageId(params.id);
 		const parsed = transitionFromForm(await request.formData());
 		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
 		try {
@@ -84,7 +72,7 @@ export const actions: Actions = {
 	// same form to POST /api/v1/referrals/{id}/documents to show the upload's progress.
 	upload: async ({ locals, url, params, request }) => {
 		const caller = requirePageCaller(locals, url);
-		const id = await idOf(caller, params.id, 'document.uploaded');
+		const id = pageId(params.id);
 		const parsed = await readUploadForm(await request.formData());
 		if (!parsed.ok) {
 			return fail(400, {

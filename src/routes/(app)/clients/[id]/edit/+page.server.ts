@@ -1,20 +1,12 @@
 import { error, redirect } from '@sveltejs/kit';
 import { clientBodyFromForm, formValues, type FormValues } from '$lib/clients/form';
 import type { ClientDetail } from '$lib/clients/types';
-import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
+import { failFromProblem } from '$lib/server/clients/actions';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { assertMayWriteClient, getClient, updateClient } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
-import { readId } from '$lib/server/http/api';
+import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
-
-function idOf(value: string): string {
-	try {
-		return readId(value);
-	} catch {
-		error(404, 'Not found');
-	}
-}
 
 function valuesOf(client: ClientDetail): FormValues {
 	const yesNo = (value: boolean | null) => (value === null ? '' : value ? 'yes' : 'no');
@@ -36,7 +28,7 @@ function valuesOf(client: ClientDetail): FormValues {
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
-	const client = await orNotFound(getClient(caller, idOf(params.id)));
+	const client = await forPage(getClient(caller, pageId(params.id)));
 	if (!mayWriteClient(caller.actor, client)) error(404, 'Not found');
 	return { client, values: valuesOf(client) };
 };
@@ -44,8 +36,8 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 export const actions: Actions = {
 	default: async ({ locals, url, params, request }) => {
 		const caller = requirePageCaller(locals, url);
-		const id = idOf(params.id);
-		await orNotFound(assertMayWriteClient(caller, id));
+		const id = pageId(params.id);
+		await forPage(assertMayWriteClient(caller, id));
 		const values = formValues(await request.formData());
 		try {
 			await updateClient(caller, id, clientBodyFromForm(values));

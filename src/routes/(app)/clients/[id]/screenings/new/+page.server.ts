@@ -1,25 +1,17 @@
 import { error, fail } from '@sveltejs/kit';
 import { earlyScreenWarnings, redFlagsForStage } from '$lib/domain';
 import { screeningFromForm } from '$lib/clients/form';
-import { failFromProblem, orNotFound } from '$lib/server/clients/actions';
+import { failFromProblem } from '$lib/server/clients/actions';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { stageContextAt } from '$lib/server/clients/screening-record';
 import { assertMayWriteClient, getClient, recordScreening } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
-import { readId } from '$lib/server/http/api';
+import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
-
-function idOf(value: string): string {
-	try {
-		return readId(value);
-	} catch {
-		error(404, 'Not found');
-	}
-}
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
-	const client = await orNotFound(getClient(caller, idOf(params.id)));
+	const client = await forPage(getClient(caller, pageId(params.id)));
 	if (!mayWriteClient(caller.actor, client)) error(404, 'Not found');
 	let warnings: ReturnType<typeof earlyScreenWarnings>;
 	try {
@@ -33,11 +25,11 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 export const actions: Actions = {
 	default: async ({ locals, url, params, request }) => {
 		const caller = requirePageCaller(locals, url);
-		await orNotFound(assertMayWriteClient(caller, idOf(params.id)));
+		await forPage(assertMayWriteClient(caller, pageId(params.id)));
 		const parsed = screeningFromForm(await request.formData());
 		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
 		try {
-			const result = await recordScreening(caller, idOf(params.id), parsed.data);
+			const result = await recordScreening(caller, pageId(params.id), parsed.data);
 			return { result };
 		} catch (caught) {
 			return failFromProblem(caught, parsed.values);
