@@ -1,7 +1,13 @@
 import { redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
-import { CALLBACK_PATH, SIGNOUT_PATH, authHandle, sessionCookieName } from '$lib/server/auth';
+import {
+	AUTH_BASE,
+	CALLBACK_PATH,
+	SIGNOUT_PATH,
+	authHandle,
+	sessionCookieName
+} from '$lib/server/auth';
 import type { AccessContext } from '$lib/server/audit';
 import { config } from '$lib/server/config';
 import { decideRoute } from '$lib/server/people/policy';
@@ -136,6 +142,12 @@ const authEvents: Handle = async ({ event, resolve }) => {
 		}
 		return response;
 	}
+	// Every other Auth.js route stays closed: links are asked for only through Seamwell's own
+	// sign-in form (rate limits, equal timing, access log), and the session is read only by
+	// loadPerson below (so a background request cannot extend it).
+	if (pathname === AUTH_BASE || pathname.startsWith(`${AUTH_BASE}/`)) {
+		return new Response('Not found', { status: 404, headers: { 'content-type': 'text/plain' } });
+	}
 	return resolve(event);
 };
 
@@ -201,18 +213,14 @@ const guardRoutes: Handle = async ({ event, resolve }) => {
 };
 
 /**
- * Every refusal is in the access log: a "not found" answered to a signed-in person on a real
- * route (a malformed id, a record she may not know of) that no service recorded is logged here.
+ * Every refusal is in the access log: a "not found" or "forbidden" answered to a signed-in
+ * person on a real route (a malformed id, say) that no service recorded is logged here.
  */
 const recordUnloggedRefusals: Handle = async ({ event, resolve }) => {
 	const response = await resolve(event);
 	const access = event.locals.access;
-	if (
-		response.status === 404 &&
-		event.locals.actor &&
-		event.route.id &&
-		!hasRecordedRefusal(access)
-	) {
+	const refused = response.status === 403 || response.status === 404;
+	if (refused && event.locals.actor && event.route.id && !hasRecordedRefusal(access)) {
 		await recordRefusal(access, {
 			action: 'access.denied',
 			target: { type: 'path', id: event.url.pathname.slice(0, 300) }

@@ -46,6 +46,26 @@ test('a form post without a same-origin Origin header is refused with 403', asyn
 	expect(response.status()).toBe(403);
 });
 
+test('Auth.js routes other than the confirmation and sign-out are closed', async ({
+	request,
+	baseURL
+}) => {
+	// A direct request for a link would skip the rate limits, the equal timing and the log.
+	const email = 'instructor@studio.example';
+	const before = await countMail(email);
+	const direct = await request.post('/auth/signin/nodemailer', {
+		headers: { origin: baseURL!, 'content-type': 'application/x-www-form-urlencoded' },
+		data: `email=${encodeURIComponent(email)}&callbackUrl=%2Fstart`,
+		maxRedirects: 0
+	});
+	expect(direct.status()).toBe(404);
+	for (const path of ['/auth/session', '/auth/csrf', '/auth/providers', '/auth/signin']) {
+		expect((await request.get(path, { maxRedirects: 0 })).status(), path).toBe(404);
+	}
+	await new Promise((r) => setTimeout(r, 1500));
+	expect(await countMail(email)).toBe(before);
+});
+
 test('a mail scanner fetching the link uses nothing up', async ({ page, request }) => {
 	const link = await requestSignInLink(page, 'instructor2@studio.example');
 	// The scanner follows the link and also the raw Auth.js callback form of it.

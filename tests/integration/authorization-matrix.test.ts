@@ -222,13 +222,15 @@ describe('authorization matrix', () => {
 			for (const actor of ['anonymous', ...PEOPLE] as Actor[]) {
 				const expected = row.expect[actor];
 				const userId = userIds.get(actor);
-				const before = expected === 404 && userId ? await refusalsOf(userId) : 0;
+				// Every refusal to a signed-in person (404 not there, 403 not allowed) is in the log.
+				const watched = expected === 404 || expected === 403 ? userId : undefined;
+				const before = watched ? await refusalsOf(watched) : 0;
 				const got = await call(row, actor);
 				if (!matches(expected, got)) {
 					wrong.push(
 						`${row.call} ${pathOf(row)} as ${actor}: expected ${expected}, got ${got.status} ${got.location}`
 					);
-				} else if (expected === 404 && userId && (await refusalsOf(userId)) <= before) {
+				} else if (watched && (await refusalsOf(watched)) <= before) {
 					wrong.push(`${row.call} ${pathOf(row)} as ${actor}: refused but not in the access log`);
 				}
 			}

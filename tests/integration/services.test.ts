@@ -4,8 +4,15 @@ import { sql } from 'drizzle-orm';
 import { applyMigrations } from '../../scripts/lib/migrate.mjs';
 import { createDatabase, db } from '../../src/lib/server/db';
 import { deliver } from '../../src/lib/server/mail/transport';
-import { deleteObject, getObject, objectExists, putObject } from '../../src/lib/server/storage';
-import { requireEnv, superuser, uniqueAddress, waitForMail } from '../support/services';
+import {
+	deleteObject,
+	getObject,
+	objectExists,
+	putObject,
+	storageHealthy,
+	useS3Endpoint
+} from '../../src/lib/server/storage';
+import { inbox, requireEnv, superuser, uniqueAddress, waitForMail } from '../support/services';
 
 describe('PostgreSQL', () => {
 	const scratch = `seamwell_roundtrip_${randomBytes(4).toString('hex')}`;
@@ -87,5 +94,41 @@ describe('mail fake over SMTP', () => {
 		expect(message?.to).toEqual([to]);
 		expect(message?.subject).toBe('Seamwell test message');
 		expect(message?.text.trim()).toBe('Hello from the test.');
+	});
+});
+
+describe('health check', () => {
+	it('tells when the S3 store does not answer, and when it is back', async () => {
+		expect(await storageHealthy()).toBe(true);
+		useS3Endpoint('http://127.0.0.1:9'); // nothing listens on the discard port
+		try {
+			expect(await storageHealthy()).toBe(false);
+		} finally {
+			useS3Endpoint(null);
+		}
+		expect(await storageHealthy()).toBe(true);
+	});
+});
+
+describe('mail fake inbox API', () => {
+	it('lists messages newest first with their fields, filters by address, and empties', async () => {
+		const to = uniqueAddress('inbox');
+		await deliver({ to, subject: 'first', text: 'one' });
+		await deliver({ to, subject: 'second', text: 'two', html: '<p>two</p>' });
+		const messages = await waitForMail(to, 2);
+		expect(messages.map((m) => m.subject)).toEqual(['second', 'first']);
+		expect(Object.keys(messages[0]!)).toEqual(
+			expect.arrayContaining(['id', 'to', 'subject', 'text', 'html', 'date'])
+		);
+		expect(messages[0]!.html).toContain('<p>two</p>');
+		expect(messages[1]!.html).toBeNull();
+		expect(Date.parse(messages[0]!.date)).toBeGreaterThanOrEqual(Date.parse(messages[1]!.date));
+
+		const base = requireEnv('MAIL_INBOX_URL');
+		const removed = await fetch(`${base}/api/messages?to=${encodeURIComponent(to)}`, {
+			method: 'DELETE'
+		});
+		expect(removed.status).toBe(204);
+		expect(await inbox(to)).toEqual([]);
 	});
 });

@@ -12,6 +12,8 @@ describe('sites', () => {
 });
 
 describe('isValidFingerWidth', () => {
+	// Common practice, no source: the finger-width test reads in half fingers; 0–6 is the
+	// product's recording range (DESIGN.md), wider than any gap a screening reports.
 	it.each([0, 0.5, 2, 2.5, 6])('accepts %s (0–6 in half steps)', (value) => {
 		expect(isValidFingerWidth(value)).toBe(true);
 	});

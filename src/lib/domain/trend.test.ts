@@ -27,7 +27,7 @@ describe('siteTrend — direction', () => {
 	});
 
 	it('calls a change of exactly half a finger width steady, either way', () => {
-		// trade practice, no source — at most half a finger width (inclusive) is steady
+		// common practice, no source — at most half a finger width (inclusive) is steady
 		expect(STEADY_BAND.value).toBe(0.5);
 		expect(siteTrend([point(0, 2), point(14, 2.5)]).direction).toBe('steady');
 		expect(siteTrend([point(0, 2.5), point(14, 2)]).direction).toBe('steady');
@@ -35,7 +35,7 @@ describe('siteTrend — direction', () => {
 	});
 
 	it('calls narrowing by one finger width improving and widening by one widening', () => {
-		// trade practice, no source — beyond half a finger width is a change; narrower is better
+		// common practice, no source — beyond half a finger width is a change; narrower is better
 		expect(siteTrend([point(0, 3), point(14, 2)])).toMatchObject({
 			direction: 'improving',
 			changeSinceFirst: -1
@@ -47,7 +47,7 @@ describe('siteTrend — direction', () => {
 	});
 
 	it('is not tipped out of steady by float noise', () => {
-		// trade practice, no source — 0.5 inclusive; 2.1 − 1.6 is 0.5000000000000002 in floats
+		// common practice, no source — 0.5 inclusive; 2.1 − 1.6 is 0.5000000000000002 in floats
 		const trend = siteTrend([point(0, 1.6), point(7, 2.1)]);
 		expect(trend.direction).toBe('steady');
 		expect(trend.changeSinceFirst).toBe(0.5);

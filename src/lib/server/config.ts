@@ -24,8 +24,13 @@ export type Config = z.infer<typeof schema>;
 let cached: Config | undefined;
 
 export function config(): Config {
-	if (cached) return cached;
-	const parsed = schema.safeParse(process.env);
+	cached ??= parseConfig(process.env);
+	return cached;
+}
+
+/** Checks an environment; throws a message naming every missing or malformed variable. */
+export function parseConfig(env: Record<string, string | undefined>): Config {
+	const parsed = schema.safeParse(env);
 	if (!parsed.success) {
 		const problems = parsed.error.issues
 			.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`)
@@ -34,6 +39,5 @@ export function config(): Config {
 			`Seamwell's configuration is incomplete. Set these environment variables (see .env.example):\n${problems}`
 		);
 	}
-	cached = parsed.data;
-	return cached;
+	return parsed.data;
 }

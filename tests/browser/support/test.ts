@@ -1,8 +1,10 @@
 // Playwright's `test` and `expect`, with one change: `page.goto` of an HTML page returns only
-// once Svelte has hydrated it (the root layout marks <html data-hydrated>). Typing into a
-// server-rendered form before hydration races the framework on a busy machine; a person is
-// slower than that, a test is not.
+// once Svelte has hydrated it (the root layout marks <html data-hydrated>), and after the
+// accessibility check (WCAG 2.2 A/AA) has passed on it — so every page a test opens is
+// checked. Typing into a server-rendered form before hydration races the framework on a busy
+// machine; a person is slower than that, a test is not.
 import { test as base, expect } from '@playwright/test';
+import { expectAccessible } from '../a11y';
 
 export const test = base.extend({
 	page: async ({ page }, use) => {
@@ -12,6 +14,7 @@ export const test = base.extend({
 			const type = response?.headers()['content-type'] ?? '';
 			if (type.startsWith('text/html')) {
 				await page.locator('html[data-hydrated]').waitFor({ state: 'attached' });
+				await expectAccessible(page);
 			}
 			return response;
 		};

@@ -5,7 +5,7 @@ export const demoOrganisations = {
 	studio: { name: 'Linden Row Studio', kind: 'studio' },
 	otherStudio: { name: 'Harbour Movement', kind: 'studio' },
 	clinic: { name: 'Fernbank Pelvic Health', kind: 'clinic' },
-	otherClinic: { name: 'Northgate Physiotherapy', kind: 'clinic' }
+	otherClinic: { name: 'Quillfield Physiotherapy', kind: 'clinic' }
 } as const;
 
 export type DemoOrganisationKey = keyof typeof demoOrganisations;
@@ -66,7 +66,7 @@ export const demoPeople: DemoPerson[] = [
 		email: 'physio@otherclinic.example',
 		name: 'Owen Brandt',
 		roles: [{ organisation: 'otherClinic', role: 'physiotherapist' }],
-		description: 'Northgate Physiotherapy — physiotherapist'
+		description: 'Quillfield Physiotherapy — physiotherapist'
 	},
 	{
 		email: 'client@client.example',
