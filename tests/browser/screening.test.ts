@@ -46,6 +46,10 @@ test('an instructor adds a client, screens her past the threshold and sees refer
 	await expect(result).toContainText('At the navel: a gap of 3 finger widths');
 	await expect(result).toContainText('Refer to a pelvic-health physiotherapist');
 	await expect(result).toContainText('Source: Sperstad JB et al.');
+	// Finger widths shown with an mm estimate, labelled as such with the factor used.
+	await expect(result.getByTestId('screening-widths')).toContainText(
+		/3 finger widths \(≈ \d+ mm, estimate at [\d.]+ mm per finger\)/
+	);
 	await expect(result.getByRole('complementary', { name: 'Caution' })).toBeVisible();
 	await expectAccessible(page);
 	await page.screenshot({ path: 'test-results/screening-result.png', fullPage: true });
@@ -57,9 +61,21 @@ test('an instructor adds a client, screens her past the threshold and sees refer
 		page.locator('figure').filter({ hasText: 'At the navel' }).locator('circle')
 	).toHaveCount(1);
 	await expect(page.getByRole('table', { name: /Every screening/ })).toContainText('3');
+	await expect(page.getByRole('table', { name: /Every screening/ })).toContainText(
+		/≈ \d+ mm, estimate at [\d.]+ mm per finger/
+	);
+	await expect(page.getByTestId('mm-estimate-note')).toContainText('estimate');
 	await expect(page.getByTestId('trend-at_navel')).toContainText('Needs two screenings');
 	await expectAccessible(page);
 	await page.screenshot({ path: 'test-results/client-page.png', fullPage: true });
+
+	// Where the factor is set: read only here, so other tests' estimates stay as they are.
+	await page
+		.getByTestId('mm-estimate-note')
+		.getByRole('link', { name: 'your account page' })
+		.click();
+	await expect(page.getByLabel('Millimetres per finger width')).toBeVisible();
+	await expectAccessible(page);
 
 	await page.goto(`/clients?search=${encodeURIComponent(name)}&needs=referral`);
 	await expect(page.getByRole('link', { name })).toBeVisible();

@@ -95,6 +95,9 @@ export const MATRIX: Row[] = [
 	{ route: '/(app)/start', call: 'GET', expect: signedIn('redirect') },
 	{ route: '/(app)/account', call: 'GET', expect: signedIn(200) },
 	{ route: '/(app)/account', call: 'POST ?/switch', expect: signedIn(400) },
+	// Her own finger-width factor. A form without the field is refused (400); an empty field
+	// (the default again) comes only from the page's own form.
+	{ route: '/(app)/account', call: 'POST ?/factor', expect: signedIn(400) },
 	{ route: '/(app)/instructor', call: 'GET', expect: only(INSTRUCTORS, 200) },
 	{ route: '/(app)/physio', call: 'GET', expect: only(PHYSIOS, 200) },
 	{ route: '/(app)/client', call: 'GET', expect: only(CLIENTS, 200) },

@@ -1,4 +1,4 @@
-import type { Outcome, ReferTo, TrendDirection } from '$lib/domain';
+import { fingersToMmEstimate, type Outcome, type ReferTo, type TrendDirection } from '$lib/domain';
 
 // Words the screens use for stored codes, in one place.
 
@@ -43,4 +43,14 @@ export function formatDate(value: string | Date): string {
 		year: 'numeric',
 		timeZone: 'UTC'
 	});
+}
+
+/**
+ * A finger width as an approximate millimetre figure, always labelled an estimate with the
+ * factor it used: "≈ 30 mm, estimate at 15 mm per finger". For showing only; no criterion
+ * reads it.
+ */
+export function formatMmEstimate(fingers: number, mmPerFinger: number): string {
+	const { mm, factor } = fingersToMmEstimate(fingers, mmPerFinger);
+	return `≈ ${Math.round(mm)} mm, estimate at ${factor} mm per finger`;
 }

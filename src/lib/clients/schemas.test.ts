@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { clientCreateSchema, screeningInputSchema } from './schemas';
 
 const site = { widthFingers: 1.5, depth: 'shallow', tension: 'firm', doming: false };
@@ -106,11 +106,38 @@ describe('clientCreateSchema', () => {
 		expect(parsed.intakeConsent?.method).toBe('in_person');
 	});
 
-	it('refuses a birth date after today', () => {
-		const tomorrow = new Date(Date.now() + 86_400_000).toISOString().slice(0, 10);
-		const result = clientCreateSchema.safeParse({ ...postpartum, birthDate: tomorrow });
+	it('refuses a birth date after today, even with the day of grace', () => {
+		const inTwoDays = new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10);
+		const result = clientCreateSchema.safeParse({ ...postpartum, birthDate: inTwoDays });
 		expect(result.success).toBe(false);
 		expect(result.error?.issues.map((i) => i.path.join('/'))).toEqual(['birthDate']);
+	});
+
+	describe('just after midnight in a zone ahead of UTC', () => {
+		// 23:30 UTC on 9 March is 00:30 on 10 March in Berlin (UTC+1): her today is 10 March.
+		beforeEach(() => {
+			vi.useFakeTimers();
+			vi.setSystemTime(new Date('2025-03-09T23:30:00Z'));
+		});
+		afterEach(() => vi.useRealTimers());
+
+		it('accepts her today as the birth date and the postnatal check date', () => {
+			const result = clientCreateSchema.safeParse({
+				...postpartum,
+				birthDate: '2025-03-10',
+				postnatalCheckOn: '2025-03-10'
+			});
+			expect(result.success).toBe(true);
+		});
+
+		it('still refuses the day after her today', () => {
+			const result = clientCreateSchema.safeParse({
+				...postpartum,
+				birthDate: '2025-03-10',
+				postnatalCheckOn: '2025-03-11'
+			});
+			expect(result.error?.issues.map((i) => i.path.join('/'))).toEqual(['postnatalCheckOn']);
+		});
 	});
 
 	it('needs a due date in pregnancy and the birth details after it', () => {

@@ -56,7 +56,14 @@ const todayUtc = () => new Date().toISOString().slice(0, 10);
 /** A calendar day, YYYY-MM-DD. */
 const day = z.iso.date({ error: 'must be a date (YYYY-MM-DD)' });
 
-const dayNotAfterToday = day.refine((value) => value <= todayUtc(), 'must not be in the future');
+/**
+ * A calendar day no later than today. "Today" is hers, not UTC's: just after her midnight in
+ * a zone ahead of UTC, her today is still tomorrow in UTC, so one day of grace (as pastMoment).
+ */
+const dayNotAfterToday = day.refine((value) => {
+	const tomorrowUtc = new Date(Date.parse(`${todayUtc()}T00:00:00Z`) + MS_PER_DAY);
+	return value <= tomorrowUtc.toISOString().slice(0, 10);
+}, 'must not be in the future');
 
 /**
  * When something happened: a full timestamp with its offset, or a calendar day. A day alone

@@ -77,3 +77,14 @@ export interface RecordedScreening {
 	weeksPostpartum: number | null;
 	weeksOfGestation: number | null;
 }
+
+/**
+ * The millimetres per finger width the viewing examiner reads finger widths at: her own, or
+ * the default when she has set none. For showing an approximate mm estimate beside a finger
+ * width — never for a criterion.
+ */
+export interface FingerFactor {
+	mmPerFinger: number;
+	/** True when she has set none and the default applies. */
+	isDefault: boolean;
+}

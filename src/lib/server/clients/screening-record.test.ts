@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { SiteMeasure } from '../../domain';
 import {
+	assertNotBeforeConsent,
 	buildScreeningRecord,
 	SCREENING_RULES_VERSION,
 	stageContextAt,
@@ -93,5 +94,21 @@ describe('buildScreeningRecord', () => {
 		expect(record.stage).toBe('pregnant');
 		expect(record.weeksOfGestation).toBe(28);
 		expect(record.warnings).toEqual([]);
+	});
+});
+
+describe('assertNotBeforeConsent', () => {
+	const consent = new Date('2025-03-10T15:00:00Z');
+
+	it('allows the consent day itself, whatever the hour, and any later day', () => {
+		// common practice, no source — screenings are recorded only once she has agreed
+		expect(() => assertNotBeforeConsent(new Date('2025-03-10T08:00:00Z'), consent)).not.toThrow();
+		expect(() => assertNotBeforeConsent(new Date('2025-03-11T00:00:00Z'), consent)).not.toThrow();
+	});
+
+	it('refuses the day before, naming the consent date', () => {
+		expect(() => assertNotBeforeConsent(new Date('2025-03-09T23:59:59Z'), consent)).toThrow(
+			new ScreeningDateError('must not be before her intake consent on 10 Mar 2025')
+		);
 	});
 });

@@ -10,6 +10,7 @@ import {
 	type SiteMeasure,
 	type StageContext
 } from '../../domain';
+import { formatDate } from '../../clients/labels';
 
 /**
  * The version of the classification rules a stored outcome was decided by. Bump it whenever
@@ -28,6 +29,19 @@ export interface ClientDates {
 export class ScreeningDateError extends Error {}
 
 const dayOf = (at: Date) => at.toISOString().slice(0, 10);
+
+/**
+ * A screening may not predate her intake consent (her agreement to the studio recording
+ * screenings). Compared by calendar day (UTC, as the record's dates are shown), so a
+ * screening on the day of the consent is fine whatever its hour.
+ */
+export function assertNotBeforeConsent(takenAt: Date, consentAt: Date): void {
+	if (dayOf(takenAt) < dayOf(consentAt)) {
+		throw new ScreeningDateError(
+			`must not be before her intake consent on ${formatDate(consentAt)}`
+		);
+	}
+}
 
 /**
  * Her position in care on the day of the screening, from the record's dates. A postpartum

@@ -14,6 +14,7 @@ import {
 	users
 } from '../db/schema';
 import { ProblemError } from '../http/problem';
+import { formatDate } from '$lib/clients/labels';
 import { screeningInputSchema } from '$lib/clients/schemas';
 import {
 	createClient,
@@ -136,7 +137,8 @@ async function newClient(caller: Caller, name: string, withConsent = true) {
 		multiples: false,
 		postnatalCheckOn: weeksAgo(5),
 		postnatalCleared: true,
-		intakeConsent: withConsent ? { at: new Date(), method: 'in_person' } : null
+		// She agreed when she joined, at the birth: her history may be entered from then on.
+		intakeConsent: withConsent ? { at: new Date(weeksAgo(12)), method: 'in_person' } : null
 	});
 }
 
@@ -261,15 +263,51 @@ describe('screenings', () => {
 			name: 'Early Date',
 			stage: 'pregnant',
 			dueDate: weeksAgo(-10),
-			intakeConsent: { at: new Date(), method: 'online' }
+			// Consent before the screening date, so the date of the pregnancy is what fails.
+			intakeConsent: { at: new Date(weeksAgo(45)), method: 'online' }
 		});
 		const input = screeningInputSchema.parse({
 			takenAt: weeksAgo(40),
 			sites: { above_navel: site(1), at_navel: site(1), below_navel: site(1) }
 		});
 		const problem = await expectProblem(recordScreening(tess, id, input), 'validation-failed');
-		expect(problem.init.errors?.map((e) => e.pointer)).toEqual(['/takenAt']);
+		expect(problem.init.errors).toEqual([
+			{ pointer: '/takenAt', message: 'is more than 40 weeks before her due date' }
+		]);
 		expect(await db().select().from(screenings).where(eq(screenings.clientId, id))).toEqual([]);
+	});
+
+	it('refuses a screening dated before her intake consent (422, /takenAt); her consent day is fine', async () => {
+		const { id } = await newClient(tess, 'Consent Later', false);
+		const consentDay = weeksAgo(3);
+		const consentAt = new Date(`${consentDay}T15:00:00Z`);
+		await updateClient(tess, id, { intakeConsent: { at: consentAt, method: 'in_person' } });
+		const on = (takenAt: string) =>
+			screeningInputSchema.parse({
+				takenAt,
+				sites: { above_navel: site(1), at_navel: site(1), below_navel: site(1) }
+			});
+		const dayBefore = new Date(consentAt.getTime() - 86_400_000).toISOString().slice(0, 10);
+
+		const problem = await expectProblem(
+			recordScreening(tess, id, on(dayBefore)),
+			'validation-failed'
+		);
+		expect(problem.toResponse().status).toBe(422);
+		expect(problem.init.errors).toEqual([
+			{
+				pointer: '/takenAt',
+				message: `must not be before her intake consent on ${formatDate(consentAt)}`
+			}
+		]);
+		expect(await db().select().from(screenings).where(eq(screenings.clientId, id))).toEqual([]);
+		const [untouched] = await db().select().from(clients).where(eq(clients.id, id));
+		expect(untouched!.lastScreenedAt).toBeNull();
+
+		// Earlier in the day than the consent, but the same day: recorded.
+		const sameDay = await recordScreening(tess, id, on(`${consentDay}T09:00:00Z`));
+		const stored = await db().select().from(screenings).where(eq(screenings.clientId, id));
+		expect(stored.map((s) => s.id)).toEqual([sameDay.id]);
 	});
 
 	it('lists newest first with the trend per site, and the client sees only her own', async () => {
@@ -337,6 +375,13 @@ describe('inviting a client to sign in', () => {
 		expect(client!.userId).toBe(user!.id);
 		const mails = await db().select().from(outbox).where(eq(outbox.to, email));
 		expect(mails.map((m) => m.kind)).toEqual(['client.invitation']);
+		// A mail carries no health details: nothing says what the record is about.
+		const [mail] = mails;
+		const words = [mail!.subject, mail!.text, mail!.html ?? ''].join('\n').toLowerCase();
+		expect(words).toContain('keeps your record in seamwell');
+		for (const health of ['midline', 'screening', 'abdominal', 'diastasis', 'separation']) {
+			expect(words, health).not.toContain(health);
+		}
 		await expectProblem(inviteClientToSignIn(priya, id), 'not-found');
 	});
 });

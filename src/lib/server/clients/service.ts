@@ -2,6 +2,7 @@ import { and, asc, desc, eq, ilike, isNull, lt, or, sql, type SQL } from 'drizzl
 import { z } from 'zod';
 import {
 	chartSeries,
+	DEFAULT_MM_PER_FINGER,
 	screeningTrend,
 	weeksOfGestation,
 	weeksPostpartum,
@@ -24,6 +25,7 @@ import { clients, screenings, users } from '../db/schema';
 import { notFound, ProblemError, validationProblem } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
 import { queueMail } from '../mail/outbox';
+import { assertSelf } from '../people/policy';
 import {
 	instructorStudioIds,
 	mayListClients,
@@ -32,10 +34,15 @@ import {
 	mayWriteClient,
 	studioForNewClient
 } from './policy';
-import { buildScreeningRecord, ScreeningDateError } from './screening-record';
+import {
+	assertNotBeforeConsent,
+	buildScreeningRecord,
+	ScreeningDateError
+} from './screening-record';
 import type {
 	ClientDetail,
 	ClientSummary,
+	FingerFactor,
 	RecordedScreening,
 	ScreeningHistory,
 	ScreeningView,
@@ -53,6 +60,7 @@ type ScreeningRow = typeof screenings.$inferSelect;
 export type {
 	ClientDetail,
 	ClientSummary,
+	FingerFactor,
 	RecordedScreening,
 	ScreeningHistory,
 	ScreeningView,
@@ -411,8 +419,8 @@ function stripUndefined<T extends Record<string, unknown>>(value: T): Partial<T>
 }
 
 /**
- * Policy: mayWriteClient, and her intake consent recorded (else 409 intake-consent-required).
- * Audit: screening.recorded.
+ * Policy: mayWriteClient, and her intake consent recorded (else 409 intake-consent-required);
+ * a screening dated before that consent is refused (422, /takenAt). Audit: screening.recorded.
  */
 export async function recordScreening(
 	caller: Caller,
@@ -433,6 +441,7 @@ export async function recordScreening(
 	}
 	let record;
 	try {
+		assertNotBeforeConsent(input.takenAt, client.intakeConsentAt);
 		record = buildScreeningRecord(client, input);
 	} catch (error) {
 		if (!(error instanceof ScreeningDateError)) throw error;
@@ -614,11 +623,12 @@ export async function inviteClientToSignIn(
 		await queueMail(tx, {
 			to: address,
 			kind: 'client.invitation',
-			subject: 'Your screenings in Seamwell',
+			// No health details in a mail: what the record is about is for the signed-in page.
+			subject: 'Your record in Seamwell',
 			text: [
 				`Hello ${client.name},`,
 				'',
-				`${studio?.organisationName ?? 'Your studio'} keeps the record of your abdominal midline screenings in Seamwell. You can now see it yourself.`,
+				`${studio?.organisationName ?? 'Your studio'} keeps your record in Seamwell. You can now see it yourself.`,
 				'',
 				`Sign in with this e-mail address at ${config().ORIGIN}/signin — we will send you a sign-in link.`,
 				'',
@@ -633,6 +643,23 @@ export async function inviteClientToSignIn(
 		});
 		return { sentTo: address };
 	});
+}
+
+/**
+ * Policy: her own setting (assertSelf). Audit: none (a preference, no client data). The factor
+ * the viewing examiner's finger widths are shown at as an mm estimate — display only, never
+ * read by a criterion (finger-width scores differ between raters: Bursch 1987).
+ */
+export async function examinerFactor(caller: Caller): Promise<FingerFactor> {
+	assertSelf(caller.actor, caller.actor.userId);
+	const [row] = await db()
+		.select({ mmPerFinger: users.mmPerFinger })
+		.from(users)
+		.where(eq(users.id, caller.actor.userId));
+	const own = row?.mmPerFinger ?? null;
+	return own === null
+		? { mmPerFinger: DEFAULT_MM_PER_FINGER, isDefault: true }
+		: { mmPerFinger: own, isDefault: false };
 }
 
 /**

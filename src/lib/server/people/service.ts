@@ -71,6 +71,56 @@ export function chooseOrganisation(caller: Caller, organisationId: string): stri
 	return held.organisationId;
 }
 
+// ---------------------------------------------------------------- her own settings
+// Her millimetres per finger width, for showing finger widths as an mm estimate (display only,
+// never a criterion); null means the default.
+
+/** The range a finger-width factor may take, in millimetres per finger width. */
+export const FINGER_FACTOR_MIN = 5;
+export const FINGER_FACTOR_MAX = 40;
+
+/** Policy: a person reads her own setting (assertSelf). Audit: none (a preference, no client data). */
+export async function getFingerFactor(caller: Caller): Promise<number | null> {
+	assertSelf(caller.actor, caller.actor.userId);
+	const [row] = await db()
+		.select({ mmPerFinger: users.mmPerFinger })
+		.from(users)
+		.where(eq(users.id, caller.actor.userId));
+	return row?.mmPerFinger ?? null;
+}
+
+/** Policy: a person edits her own setting (assertSelf). Audit: none (a preference, no client data). */
+export async function setFingerFactor(
+	caller: Caller,
+	mmPerFinger: number | null
+): Promise<number | null> {
+	assertSelf(caller.actor, caller.actor.userId);
+	if (
+		mmPerFinger !== null &&
+		!(
+			Number.isFinite(mmPerFinger) &&
+			mmPerFinger >= FINGER_FACTOR_MIN &&
+			mmPerFinger <= FINGER_FACTOR_MAX
+		)
+	) {
+		throw new ProblemError('validation-failed', {
+			detail: `A finger width is set as ${FINGER_FACTOR_MIN} to ${FINGER_FACTOR_MAX} mm.`,
+			errors: [
+				{
+					pointer: '/mmPerFinger',
+					message: `must be ${FINGER_FACTOR_MIN} to ${FINGER_FACTOR_MAX} mm, or empty for the default`
+				}
+			]
+		});
+	}
+	const [row] = await db()
+		.update(users)
+		.set({ mmPerFinger })
+		.where(eq(users.id, caller.actor.userId))
+		.returning({ mmPerFinger: users.mmPerFinger });
+	return row?.mmPerFinger ?? null;
+}
+
 // ---------------------------------------------------------------- dashboards
 
 export interface AreaSummary {

@@ -1,10 +1,12 @@
 import { sql } from 'drizzle-orm';
 import {
 	boolean,
+	check,
 	index,
 	integer,
 	pgTable,
 	primaryKey,
+	real,
 	text,
 	timestamp,
 	uuid
@@ -15,17 +17,25 @@ import {
 
 const tz = { withTimezone: true, mode: 'date' } as const;
 
-export const users = pgTable('users', {
-	id: uuid('id').primaryKey().defaultRandom(),
-	name: text('name'),
-	// Stored lowercased: Auth.js lowercases the address before it looks a person up.
-	email: text('email').notNull().unique(),
-	emailVerified: timestamp('email_verified', tz),
-	image: text('image'),
-	// A deactivated person gets no sign-in mail and no session.
-	active: boolean('active').notNull().default(true),
-	createdAt: timestamp('created_at', tz).notNull().defaultNow()
-});
+export const users = pgTable(
+	'users',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		name: text('name'),
+		// Stored lowercased: Auth.js lowercases the address before it looks a person up.
+		email: text('email').notNull().unique(),
+		emailVerified: timestamp('email_verified', tz),
+		image: text('image'),
+		// A deactivated person gets no sign-in mail and no session.
+		active: boolean('active').notNull().default(true),
+		createdAt: timestamp('created_at', tz).notNull().defaultNow(),
+		// An examiner's own millimetres per finger width, for showing finger widths as an
+		// approximate mm estimate; null uses the default (DEFAULT_MM_PER_FINGER). Display only:
+		// never fed into a criterion.
+		mmPerFinger: real('mm_per_finger')
+	},
+	(t) => [check('users_mm_per_finger_range', sql`${t.mmPerFinger} between 5 and 40`)]
+);
 
 export const accounts = pgTable(
 	'accounts',

@@ -5,6 +5,7 @@ import { failFromProblem } from '$lib/server/clients/actions';
 import { siteChartGeometry } from '$lib/server/clients/chart';
 import {
 	assertMayWriteClient,
+	examinerFactor,
 	getClient,
 	getScreeningHistory,
 	inviteClientToSignIn,
@@ -25,7 +26,14 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		title: siteLabelCapitalised(site),
 		chart: siteChartGeometry(history.series[site])
 	}));
-	return { client, history, charts, mayWrite: mayWriteClient(caller.actor, client) };
+	return {
+		client,
+		history,
+		charts,
+		mayWrite: mayWriteClient(caller.actor, client),
+		// Her own factor for the table's mm estimates (display only, never a criterion).
+		fingerFactor: await examinerFactor(caller)
+	};
 };
 
 export const actions: Actions = {

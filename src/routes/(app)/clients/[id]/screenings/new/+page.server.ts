@@ -1,10 +1,15 @@
 import { error, fail } from '@sveltejs/kit';
-import { earlyScreenWarnings, redFlagsForStage } from '$lib/domain';
+import { earlyScreenWarnings, redFlagsForStage, SITES, type Site } from '$lib/domain';
 import { screeningFromForm } from '$lib/clients/form';
 import { failFromProblem } from '$lib/server/clients/actions';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { stageContextAt } from '$lib/server/clients/screening-record';
-import { assertMayWriteClient, getClient, recordScreening } from '$lib/server/clients/service';
+import {
+	assertMayWriteClient,
+	examinerFactor,
+	getClient,
+	recordScreening
+} from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
@@ -19,7 +24,13 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	} catch {
 		warnings = [];
 	}
-	return { client, redFlags: redFlagsForStage(client.stage), warnings };
+	return {
+		client,
+		redFlags: redFlagsForStage(client.stage),
+		warnings,
+		// Her own factor for the result's mm estimates (display only, never a criterion).
+		fingerFactor: await examinerFactor(caller)
+	};
 };
 
 export const actions: Actions = {
@@ -30,7 +41,11 @@ export const actions: Actions = {
 		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
 		try {
 			const result = await recordScreening(caller, pageId(params.id), parsed.data);
-			return { result };
+			// The widths as recorded, for the result's finger widths and their mm estimates.
+			const widths = Object.fromEntries(
+				SITES.map((site) => [site, parsed.data.sites[site].widthFingers])
+			) as Record<Site, number>;
+			return { result, widths };
 		} catch (caught) {
 			return failFromProblem(caught, parsed.values);
 		}
