@@ -1,63 +1,18 @@
-import type { Outcome, ScreeningReason } from '../../domain/screening';
-import type { RedFlag } from '../../domain/red-flags';
-import type { Site, SiteMeasure } from '../../domain/sites';
+import type { ReferralClient, ReferralScreening } from '../../referrals/types';
 
 // The copy of a client's record a clinic receives when a referral is sent. Pure shapes and
 // the function that builds them, so the service, the schema and the tests share one form.
 // Dates travel as ISO strings: the copy is JSON and must read back exactly as written.
 
 /** The client details a physiotherapist needs to triage: no address, no contact details. */
-export interface SnapshotClient {
-	name: string;
-	birthYear: number | null;
-	stage: 'pregnant' | 'postpartum';
-	dueDate: string | null;
-	birthDate: string | null;
-	delivery: 'vaginal' | 'caesarean' | null;
-	births: number | null;
-	multiples: boolean | null;
-	postnatalCheckOn: string | null;
-	postnatalCleared: boolean | null;
-}
+export type SnapshotClient = ReferralClient;
 
-export interface SnapshotScreening {
-	id: string;
-	takenAt: string;
-	sites: Record<Site, SiteMeasure>;
-	redFlags: RedFlag[];
-	notes: string | null;
-	stage: 'pregnant' | 'postpartum';
-	weeksPostpartum: number | null;
-	weeksOfGestation: number | null;
-	outcome: Outcome;
-	reasons: ScreeningReason[];
-}
+/** One screening as the clinic receives it (dates as ISO strings). */
+export type SnapshotScreening = ReferralScreening;
 
-export interface ClientRow {
-	name: string;
-	birthYear: number | null;
-	stage: 'pregnant' | 'postpartum';
-	dueDate: string | null;
-	birthDate: string | null;
-	delivery: 'vaginal' | 'caesarean' | null;
-	births: number | null;
-	multiples: boolean | null;
-	postnatalCheckOn: string | null;
-	postnatalCleared: boolean | null;
-}
-
-export interface ScreeningRow {
-	id: string;
-	takenAt: Date;
-	sites: Record<Site, SiteMeasure>;
-	redFlags: RedFlag[];
-	notes: string | null;
-	stage: 'pregnant' | 'postpartum';
-	weeksPostpartum: number | null;
-	weeksOfGestation: number | null;
-	outcome: Outcome;
-	reasons: ScreeningReason[];
-}
+/** What the snapshot reads from the database: the same details, with real dates. */
+type ClientRow = SnapshotClient;
+type ScreeningRow = Omit<SnapshotScreening, 'takenAt'> & { takenAt: Date };
 
 export function snapshotClient(client: ClientRow): SnapshotClient {
 	return {
