@@ -46,11 +46,17 @@ try {
 
 	let app;
 	if (dev) {
-		app = spawn('npx', ['vite', 'dev', '--host', env.HOST, '--port', env.PORT, '--strictPort'], {
-			cwd: root,
-			env,
-			stdio: 'inherit'
-		});
+		// Vite itself, not through npx: npx does not pass Ctrl-C's SIGTERM on to its child.
+		const vite = join(root, 'node_modules', 'vite', 'bin', 'vite.js');
+		app = spawn(
+			process.execPath,
+			[vite, 'dev', '--host', env.HOST, '--port', env.PORT, '--strictPort'],
+			{
+				cwd: root,
+				env,
+				stdio: 'inherit'
+			}
+		);
 	} else {
 		log('Building the app (vite build) …');
 		runOrThrow('npx', ['vite', 'build', '--logLevel', 'warn'], env);
