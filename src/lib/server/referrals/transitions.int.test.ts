@@ -100,6 +100,17 @@ const ROLES: Role[] = [
 	'studioAdmin'
 ];
 
+/** A referral from the creator's studio to the clinic, in the given state (named physio by default). */
+const referralIn = (state: ReferralState, physioId: string | null = people.namedPhysio.userId) =>
+	addReferral({
+		clientId: client.clientId,
+		studio,
+		clinic,
+		createdBy: people.creator.userId,
+		state,
+		physioId
+	});
+
 describe('every from × to × role', () => {
 	it('has the targets the issue names', () => {
 		expect([...TRANSITION_TARGETS].sort()).toEqual(
@@ -112,14 +123,7 @@ describe('every from × to × role', () => {
 			const mismatches: string[] = [];
 			for (const from of REFERRAL_STATES) {
 				for (const to of TRANSITION_TARGETS) {
-					const id = await addReferral({
-						clientId: client.clientId,
-						studio,
-						clinic,
-						createdBy: people.creator.userId,
-						state: from,
-						physioId: people.namedPhysio.userId
-					});
+					const id = await referralIn(from);
 					const want = expected(role, from, to);
 					const got = await statusOf(
 						transitionReferral(people[role].caller, id, { to, reason: 'a reason for the step' })
@@ -137,14 +141,7 @@ describe('every from × to × role', () => {
 	}
 
 	it('logs every refused move for the one who tried', async () => {
-		const id = await addReferral({
-			clientId: client.clientId,
-			studio,
-			clinic,
-			createdBy: people.creator.userId,
-			state: 'closed',
-			physioId: people.namedPhysio.userId
-		});
+		const id = await referralIn('closed');
 		const before = (await logRows(people.creator.userId, 'referral.transitioned')).length;
 		const problem = await problemOf(
 			transitionReferral(people.creator.caller, id, { to: 'withdrawn', reason: 'no longer needed' })
@@ -160,14 +157,7 @@ describe('every from × to × role', () => {
 
 describe('reasons', () => {
 	it('withdrawing and declining need a reason: 422 naming the field, nothing changed', async () => {
-		const sent = await addReferral({
-			clientId: client.clientId,
-			studio,
-			clinic,
-			createdBy: people.creator.userId,
-			state: 'sent',
-			physioId: people.namedPhysio.userId
-		});
+		const sent = await referralIn('sent');
 		for (const [who, to] of [
 			['creator', 'withdrawn'],
 			['namedPhysio', 'declined']
@@ -182,14 +172,7 @@ describe('reasons', () => {
 	});
 
 	it('keeps who, when and why of each step', async () => {
-		const id = await addReferral({
-			clientId: client.clientId,
-			studio,
-			clinic,
-			createdBy: people.creator.userId,
-			state: 'sent',
-			physioId: people.namedPhysio.userId
-		});
+		const id = await referralIn('sent');
 		await transitionReferral(people.namedPhysio.caller, id, {
 			to: 'declined',
 			reason: 'Outside our service area'
@@ -208,14 +191,7 @@ describe('reasons', () => {
 
 describe('an unnamed referral', () => {
 	it('any physiotherapist of the clinic may accept; then only she may assess and close', async () => {
-		const id = await addReferral({
-			clientId: client.clientId,
-			studio,
-			clinic,
-			createdBy: people.creator.userId,
-			state: 'sent',
-			physioId: null
-		});
+		const id = await referralIn('sent', null);
 		const accepted = await transitionReferral(people.otherPhysioSameClinic.caller, id, {
 			to: 'accepted',
 			reason: null
@@ -247,14 +223,7 @@ describe('an unnamed referral', () => {
 
 describe('a move lost to a concurrent change', () => {
 	it('answers 409 invalid-transition and changes nothing', async () => {
-		const id = await addReferral({
-			clientId: client.clientId,
-			studio,
-			clinic,
-			createdBy: people.creator.userId,
-			state: 'sent',
-			physioId: people.namedPhysio.userId
-		});
+		const id = await referralIn('sent');
 		// Another connection withdraws the referral but holds its transaction open: the
 		// physiotherapist's accept reads "sent", then its UPDATE waits on the row lock.
 		const other = new pg.Client({ connectionString: requireEnv('DATABASE_URL') });
