@@ -21,6 +21,7 @@ import { accessLog, consents, documents, outbox, referrals } from '../db/schema'
 import { letterKey } from '../referrals/letter';
 import { openReferral, transitionReferral } from '../referrals/service';
 import {
+	makeCast,
 	addConsent,
 	addReferral,
 	addScreening,
@@ -57,19 +58,13 @@ const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest(
 
 let studio: Org;
 let clinic: Org;
-let otherClinic: Org;
 let instructor: Person;
 let physio: Person;
 let otherPhysio: Person;
 let otherStudioInstructor: Person;
 
 beforeAll(async () => {
-	studio = await makeOrg('studio');
-	clinic = await makeOrg('clinic');
-	otherClinic = await makeOrg('clinic', 'other clinic');
-	instructor = await makeMember(studio, 'instructor');
-	physio = await makeMember(clinic, 'physiotherapist');
-	otherPhysio = await makeMember(otherClinic, 'physiotherapist', 'elsewhere');
+	({ studio, clinic, instructor, physio, otherPhysio } = await makeCast());
 	otherStudioInstructor = await makeMember(await makeOrg('studio', 'other studio'), 'instructor');
 });
 

@@ -19,6 +19,7 @@ import {
 	transitionReferral
 } from './service';
 import {
+	makeCast,
 	addConsent,
 	addReferral,
 	addScreening,
@@ -48,12 +49,7 @@ let physio: Person;
 let otherPhysio: Person;
 
 beforeAll(async () => {
-	studio = await makeOrg('studio');
-	clinic = await makeOrg('clinic');
-	otherClinic = await makeOrg('clinic', 'other clinic');
-	instructor = await makeMember(studio, 'instructor');
-	physio = await makeMember(clinic, 'physiotherapist');
-	otherPhysio = await makeMember(otherClinic, 'physiotherapist', 'elsewhere');
+	({ studio, clinic, otherClinic, instructor, physio, otherPhysio } = await makeCast());
 });
 
 async function clientWithHistory(): Promise<ClientPerson> {

@@ -81,6 +81,24 @@ export async function makeMember(
 	return { userId: user!.id, email, name, caller: callerFor(actor, role) };
 }
 
+/**
+ * The usual cast of sharing tests: a studio with an instructor, the clinic she refers to with
+ * its physiotherapist, and another clinic whose physiotherapist must see nothing.
+ */
+export async function makeCast() {
+	const studio = await makeOrg('studio');
+	const clinic = await makeOrg('clinic');
+	const otherClinic = await makeOrg('clinic', 'other clinic');
+	return {
+		studio,
+		clinic,
+		otherClinic,
+		instructor: await makeMember(studio, 'instructor'),
+		physio: await makeMember(clinic, 'physiotherapist'),
+		otherPhysio: await makeMember(otherClinic, 'physiotherapist', 'elsewhere')
+	};
+}
+
 export interface ClientPerson extends Person {
 	clientId: string;
 }
