@@ -1,8 +1,7 @@
+import type { ScreeningView } from '$lib/clients/types';
 import type { ConsentStatus } from '$lib/domain/consent';
 import type { RedFlag } from '$lib/domain/red-flags';
 import type { ReferralState, Urgency } from '$lib/domain/referral';
-import type { Outcome, ScreeningReason } from '$lib/domain/screening';
-import type { Site, SiteMeasure } from '$lib/domain/sites';
 
 // What the referral services answer, shared with the pages and the browser.
 
@@ -50,18 +49,8 @@ export interface ReferralClient {
 	postnatalCleared: boolean | null;
 }
 
-export interface ReferralScreening {
-	id: string;
-	takenAt: string;
-	sites: Record<Site, SiteMeasure>;
-	redFlags: RedFlag[];
-	notes: string | null;
-	stage: 'pregnant' | 'postpartum';
-	weeksPostpartum: number | null;
-	weeksOfGestation: number | null;
-	outcome: Outcome;
-	reasons: ScreeningReason[];
-}
+/** A screening as the clinic receives it: the studio's view without its form-time warnings. */
+export type ReferralScreening = Omit<ScreeningView, 'warnings' | 'rulesVersion'>;
 
 export interface ReferralAction {
 	to: ReferralState;
