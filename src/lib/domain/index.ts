@@ -9,3 +9,4 @@ export * from './sources';
 export * from './stage';
 export * from './trend';
 export * from './weeks';
+export * from './movement';
