@@ -8,7 +8,11 @@ import { inbox, linkIn, signIn, sql, waitForNewMail } from './support/signin';
 // e-mail; the instructor sends; the physiotherapist's open inbox shows it without a reload
 // (a background refresh), she accepts; the instructor sees "accepted" and has the mail.
 
-const NOTICE = 'There is something new for you in Seamwell';
+// Each kind of notice has its own subject, so a reader can triage her inbox.
+const ASKED = 'Your studio asks before sharing your record';
+const RECEIVED = 'A referral for your clinic';
+const ACCEPTED = 'Your referral was accepted';
+const SHARING_ENDED = 'Sharing ended for one of your referrals';
 const INSTRUCTOR = 'instructor@studio.example';
 const CLIENT = 'client@client.example';
 const PHYSIO = 'physio@clinic.example';
@@ -20,8 +24,8 @@ async function personPage(browser: Browser, email: string): Promise<Page> {
 	return page;
 }
 
-const notices = async (address: string) =>
-	(await inbox(address)).filter((m) => m.subject.startsWith(NOTICE)).length;
+const notices = async (address: string, subject: string) =>
+	(await inbox(address)).filter((m) => m.subject.startsWith(subject)).length;
 
 test('instructor drafts, client consents from the e-mail, instructor sends, physio accepts', async ({
 	browser
@@ -66,7 +70,7 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 	// Sending without consent is refused, with the offer to ask her.
 	await instructor.getByRole('button', { name: 'Send referral' }).click();
 	await expect(instructor.getByRole('alert')).toContainText('has not consented');
-	const asked = await notices(CLIENT);
+	const asked = await notices(CLIENT, ASKED);
 	await instructor.getByRole('button', { name: 'Ask her for consent by e-mail' }).first().click();
 	await expect(instructor.getByText('We have e-mailed the client')).toBeVisible();
 	await expectAccessible(instructor);
@@ -89,7 +93,7 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 	await expect(physio.locator(`[data-referral="${referralId}"]`)).toHaveCount(0);
 
 	// 3. Hana follows the e-mail, reads what would be shared, and consents with one click.
-	const mail = await waitForNewMail(CLIENT, NOTICE, asked);
+	const mail = await waitForNewMail(CLIENT, ASKED, asked);
 	expect(mail.text).not.toContain('finger');
 	expect(mail.text).not.toContain('Fernbank');
 	const link = linkIn(mail, '/consents');
@@ -105,19 +109,17 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 		.getByRole('button', { name: 'Give consent to share with Fernbank Pelvic Health' })
 		.click();
 	await expect(client.getByText('Your consent is recorded')).toBeVisible();
-	await expect(
-		client.getByRole('button', { name: 'Withdraw consent for Fernbank Pelvic Health' })
-	).toBeVisible();
+	await expect(client.getByText('Withdraw consent for Fernbank Pelvic Health…')).toBeVisible();
 	await expectAccessible(client);
 	await client.screenshot({ path: 'test-results/consent-given.png', fullPage: true });
 
 	// 4. The instructor sends it.
 	await instructor.reload();
 	await expect(instructor.getByText('The client consents to share')).toBeVisible();
-	const received = await notices(PHYSIO);
+	const received = await notices(PHYSIO, RECEIVED);
 	await instructor.getByRole('button', { name: 'Send referral' }).click();
 	await expect(instructor.getByText('Done: the referral is now sent')).toBeVisible();
-	await waitForNewMail(PHYSIO, NOTICE, received);
+	await waitForNewMail(PHYSIO, RECEIVED, received);
 
 	// 5. It appears in the open inbox without a reload, by a background refresh.
 	const row = physio.locator(`[data-referral="${referralId}"]`);
@@ -136,12 +138,12 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 	await expect(physio.getByRole('complementary', { name: 'Caution' })).toBeVisible();
 	await expectAccessible(physio);
 	await physio.screenshot({ path: 'test-results/referral-physio.png', fullPage: true });
-	const told = await notices(INSTRUCTOR);
+	const told = await notices(INSTRUCTOR, ACCEPTED);
 	await physio.getByRole('button', { name: 'Accept' }).click();
 	await expect(physio.getByText('Done: the referral is now accepted')).toBeVisible();
 
 	// 6. The instructor sees "accepted", and the mail that says so (without details).
-	const notice = await waitForNewMail(INSTRUCTOR, NOTICE, told);
+	const notice = await waitForNewMail(INSTRUCTOR, ACCEPTED, told);
 	expect(notice.text).toContain(`/referrals/${referralId}`);
 	expect(notice.text).not.toContain('Hana');
 	await instructor.goto('/referrals');
@@ -153,10 +155,22 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 	await expectAccessible(instructor);
 	await instructor.screenshot({ path: 'test-results/referral-accepted.png', fullPage: true });
 
-	// Withdrawing consent is one click, like giving it; the accepted referral is withdrawn.
+	// Withdrawing is as easy as giving, but informed: the confirmation names what ends. The
+	// accepted referral is withdrawn, and the instructor is told as well as the physio.
 	await client.reload();
-	await client.getByRole('button', { name: 'Withdraw consent for Fernbank Pelvic Health' }).click();
+	const endedBefore = await notices(INSTRUCTOR, SHARING_ENDED);
+	await client.getByText('Withdraw consent for Fernbank Pelvic Health…').click();
+	await expect(
+		client.getByText('Your referral to Fernbank Pelvic Health (accepted by the clinic) ends.')
+	).toBeVisible();
+	await expectAccessible(client);
+	await client.screenshot({ path: 'test-results/consent-withdraw-confirm.png', fullPage: true });
+	await client
+		.getByRole('button', { name: 'Yes, stop sharing with Fernbank Pelvic Health' })
+		.click();
 	await expect(client.getByText('Your consent is withdrawn')).toBeVisible();
+	const ended = await waitForNewMail(INSTRUCTOR, SHARING_ENDED, endedBefore);
+	expect(ended.text).not.toContain('Hana');
 	await instructor.reload();
 	await expect(instructor.locator('[data-state="withdrawn"]')).toBeVisible();
 	await expect(instructor.getByText('“consent withdrawn”')).toBeVisible();

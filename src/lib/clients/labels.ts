@@ -31,6 +31,17 @@ export const TENSION_LABELS = { firm: 'Firm', soft: 'Soft' } as const;
 export const DELIVERY_LABELS = { vaginal: 'Vaginal', caesarean: 'Caesarean' } as const;
 
 /** "+0.5", "−1", "0" finger widths. */
+/** "Widened by 1 finger width since 23 Nov 2026": the recent jump, said on its own. */
+export function jumpWords(jump: {
+	direction: 'widened' | 'narrowed';
+	by: number;
+	since: string;
+}): string {
+	const unit = jump.by === 1 ? 'finger width' : 'finger widths';
+	const verb = jump.direction === 'widened' ? 'Widened' : 'Narrowed';
+	return `${verb} by ${jump.by} ${unit} since ${formatDate(jump.since)}`;
+}
+
 export function signed(value: number): string {
 	if (value === 0) return '0';
 	return value > 0 ? `+${value}` : `−${Math.abs(value)}`;

@@ -58,6 +58,8 @@ export interface TrendView {
 	changeSinceFirst: number | null;
 	changeSincePrevious: number | null;
 	changePerWeek: number | null;
+	/** A change of more than half a finger width since the previous screening. */
+	jump: { direction: 'widened' | 'narrowed'; by: number; since: string } | null;
 }
 
 export type TrendBySite = Record<Site, TrendView>;

@@ -33,6 +33,17 @@ export const REFERRAL_STATE_LABELS: Record<ReferralState, string> = {
 	withdrawn: 'Withdrawn'
 };
 
+/** The same states in words for the client herself. */
+export const REFERRAL_STATE_PLAIN: Record<ReferralState, string> = {
+	draft: 'being prepared by your studio',
+	sent: 'sent, waiting for the clinic to answer',
+	accepted: 'accepted by the clinic',
+	declined: 'declined by the clinic',
+	assessed: 'you have been assessed',
+	closed: 'closed',
+	withdrawn: 'ended'
+};
+
 /**
  * Who makes a move:
  * - `studio_instructor`: an instructor of the referring studio;

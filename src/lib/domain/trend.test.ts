@@ -61,6 +61,27 @@ describe('siteTrend — direction', () => {
 	});
 });
 
+describe('siteTrend — a jump since the previous screening', () => {
+	it('signals a widening of one finger width since the previous even when the whole trend is steady', () => {
+		// common practice, no source — more than half a finger width (the test's step) is a change
+		const trend = siteTrend([point(0, 2.5), point(7, 1), point(14, 2)]);
+		expect(trend.direction).toBe('steady');
+		expect(trend.changeSinceFirst).toBe(-0.5);
+		expect(trend.jump).toEqual({ direction: 'widened', by: 1, since: point(7, 1) });
+	});
+
+	it('gives no jump for exactly half a finger width, and a narrowing jump beyond it', () => {
+		// common practice, no source — at most half a finger width (inclusive) is steady
+		expect(siteTrend([point(0, 2), point(7, 2.5)]).jump).toBeNull();
+		expect(siteTrend([point(0, 1.6), point(7, 2.1)]).jump).toBeNull();
+		expect(siteTrend([point(0, 3), point(7, 2)]).jump).toMatchObject({
+			direction: 'narrowed',
+			by: 1
+		});
+		expect(siteTrend([point(0, 3)]).jump).toBeNull();
+	});
+});
+
 describe('siteTrend — order and rates', () => {
 	it('sorts by time whatever the input order', () => {
 		const trend = siteTrend([point(28, 2), point(0, 3), point(14, 2.5)]);

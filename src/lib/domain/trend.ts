@@ -23,6 +23,19 @@ export interface TrendPoint {
 	widthFingers: number;
 }
 
+/**
+ * A change of more than the steady band between the two latest screenings. It is shown on its
+ * own, beside the first-to-latest direction, so a recent jump is never hidden by a long, steady
+ * history (trade practice: the test's own step, no published source).
+ */
+export interface TrendJump<P extends TrendPoint = TrendPoint> {
+	direction: 'widened' | 'narrowed';
+	/** Size of the change, in finger widths, always positive. */
+	by: number;
+	/** The screening the latest one is compared with. */
+	since: P;
+}
+
 export interface SiteTrend<P extends TrendPoint = TrendPoint> {
 	/** Null with fewer than two screenings. Narrowing is improving. */
 	direction: TrendDirection | null;
@@ -32,6 +45,8 @@ export interface SiteTrend<P extends TrendPoint = TrendPoint> {
 	changeSincePrevious: number | null;
 	/** Change since the first per week between first and latest; null when no time passed. */
 	changePerWeek: number | null;
+	/** Set when the latest screening moved by more than half a finger width from the previous. */
+	jump: TrendJump<P> | null;
 	first: P | null;
 	latest: P | null;
 	count: number;
@@ -56,8 +71,12 @@ export function sortByTime<P extends { takenAt: Date | string }>(points: readonl
 		.map(({ point }) => point);
 }
 
+function isBeyondSteadyBand(change: number): boolean {
+	return Math.abs(change) > STEADY_BAND.value + EPSILON;
+}
+
 export function directionOf(changeSinceFirst: number): TrendDirection {
-	if (Math.abs(changeSinceFirst) <= STEADY_BAND.value + EPSILON) return 'steady';
+	if (!isBeyondSteadyBand(changeSinceFirst)) return 'steady';
 	return changeSinceFirst < 0 ? 'improving' : 'widening';
 }
 
@@ -73,18 +92,27 @@ export function siteTrend<P extends TrendPoint>(points: readonly P[]): SiteTrend
 			changeSinceFirst: null,
 			changeSincePrevious: null,
 			changePerWeek: null,
+			jump: null,
 			first,
 			latest,
 			count: sorted.length
 		};
 	}
 	const changeSinceFirst = clean(latest.widthFingers - first.widthFingers);
+	const changeSincePrevious = clean(latest.widthFingers - previous.widthFingers);
 	const weeks = (timeOf(latest.takenAt) - timeOf(first.takenAt)) / MS_PER_WEEK;
 	return {
 		direction: directionOf(changeSinceFirst),
 		changeSinceFirst,
-		changeSincePrevious: clean(latest.widthFingers - previous.widthFingers),
+		changeSincePrevious,
 		changePerWeek: weeks > 0 ? changeSinceFirst / weeks : null,
+		jump: isBeyondSteadyBand(changeSincePrevious)
+			? {
+					direction: changeSincePrevious > 0 ? 'widened' : 'narrowed',
+					by: Math.abs(changeSincePrevious),
+					since: previous
+				}
+			: null,
 		first,
 		latest,
 		count: sorted.length

@@ -46,7 +46,8 @@ export function referralFromForm(form: FormData): FormResult<z.infer<typeof open
 			physioId: str(values, 'physioId') || null,
 			reason: str(values, 'reason'),
 			urgency: str(values, 'urgency') || undefined,
-			redFlags: values.redFlags
+			redFlags: values.redFlags,
+			duplicateReason: str(values, 'duplicateReason')
 		},
 		values
 	);

@@ -68,7 +68,11 @@ export const openReferralSchema = z.object({
 		})
 		.max(RED_FLAGS.length)
 		.default([])
-		.transform((flags) => [...new Set(flags)])
+		.transform((flags) => [...new Set(flags)]),
+	/** Needed only when she already has a sent or accepted referral to the same clinic. */
+	duplicateReason: text(2000)
+		.transform((s) => s.trim() || null)
+		.nullish()
 });
 export type OpenReferralData = z.infer<typeof openReferralSchema>;
 

@@ -331,9 +331,12 @@ describe('screenings', () => {
 		expect(page.trend.at_navel).toMatchObject({
 			direction: 'improving',
 			changeSinceFirst: -1.5,
-			changeSincePrevious: -1
+			changeSincePrevious: -1,
+			jump: { direction: 'narrowed', by: 1 }
 		});
+		expect(page.trend.at_navel.jump?.since.slice(0, 10)).toBe(weeksAgo(4));
 		expect(page.trend.above_navel.direction).toBe('steady');
+		expect(page.trend.above_navel.jump).toBeNull();
 		const rest = await listScreenings(tess, id, { limit: 2, cursor: page.nextCursor! });
 		expect(rest.items.map((s) => s.sites.at_navel.widthFingers)).toEqual([3]);
 

@@ -140,7 +140,16 @@ function trendView(trend: SiteTrend<SiteTrendPoint>): TrendView {
 		direction: trend.direction,
 		changeSinceFirst: trend.changeSinceFirst,
 		changeSincePrevious: trend.changeSincePrevious,
-		changePerWeek: trend.changePerWeek === null ? null : Math.round(trend.changePerWeek * 100) / 100
+		changePerWeek:
+			trend.changePerWeek === null ? null : Math.round(trend.changePerWeek * 100) / 100,
+		jump:
+			trend.jump === null
+				? null
+				: {
+						direction: trend.jump.direction,
+						by: trend.jump.by,
+						since: new Date(trend.jump.since.takenAt).toISOString()
+					}
 	};
 }
 

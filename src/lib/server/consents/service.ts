@@ -8,6 +8,7 @@ import {
 	type ConsentStatus,
 	type ShareScope
 } from '../../domain/consent';
+import { OPEN_SHARED_STATES, type ReferralState } from '../../domain/referral';
 import { recordAccess } from '../audit';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
@@ -18,11 +19,13 @@ import {
 	consentRequests,
 	consents,
 	organisations,
+	referrals,
 	users
 } from '../db/schema';
 import { fieldProblem, notFound, ProblemError } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
 import { queueNotification } from '../mail/outbox';
+import { instructorRecipient } from '../referrals/notify';
 import { withdrawOpenReferrals } from '../referrals/sharing-ended';
 import {
 	adminOrganisationIds,
@@ -135,6 +138,8 @@ export interface ConsentGrantView extends ConsentItem {
 	/** When sharing under this grant stopped (withdrawn or ended), or null while it holds. */
 	endedAt: string | null;
 	history: ConsentHistoryEntry[];
+	/** Her referrals the clinic still acts on: withdrawing this grant ends them. */
+	openReferrals: Array<{ id: string; state: ReferralState; physioName: string | null }>;
 }
 
 export interface ConsentRequestView {
@@ -214,6 +219,21 @@ export async function getConsentOverview(caller: Caller): Promise<ConsentOvervie
 			.from(organisations)
 			.where(eq(organisations.kind, 'clinic'))
 			.orderBy(asc(organisations.name));
+		const physio = alias(users, 'physio');
+		const openReferralRows = await tx
+			.select({
+				id: referrals.id,
+				state: referrals.state,
+				clinicId: referrals.clinicId,
+				studioId: referrals.studioId,
+				physioName: physio.name
+			})
+			.from(referrals)
+			.leftJoin(physio, eq(physio.id, referrals.physioId))
+			.where(
+				and(eq(referrals.clientId, clientId), inArray(referrals.state, [...OPEN_SHARED_STATES]))
+			)
+			.orderBy(desc(referrals.createdAt));
 		await recordAccess(tx, caller.access, {
 			action: 'consent.read',
 			outcome: 'success',
@@ -228,7 +248,10 @@ export async function getConsentOverview(caller: Caller): Promise<ConsentOvervie
 				endedAt: sharingEndedAt(consent, now)?.toISOString() ?? null,
 				history: events
 					.filter((e) => e.consentId === consent.id)
-					.map((e) => ({ kind: e.kind, at: e.at.toISOString(), byName: e.byName }))
+					.map((e) => ({ kind: e.kind, at: e.at.toISOString(), byName: e.byName })),
+				openReferrals: openReferralRows
+					.filter((r) => r.clinicId === consent.clinicId && r.studioId === consent.studioId)
+					.map(({ id, state, physioName }) => ({ id, state, physioName }))
 			})),
 			requests: requestRows.map((r) => ({
 				...r,
@@ -353,7 +376,7 @@ export async function giveConsent(
 		await tx
 			.insert(consentEvents)
 			.values({ consentId: id, kind: 'given', at: now, actorUserId: actor.userId });
-		await tx
+		const answered = await tx
 			.update(consentRequests)
 			.set({ answeredAt: now, consentId: id })
 			.where(
@@ -362,7 +385,19 @@ export async function giveConsent(
 					eq(consentRequests.clinicId, input.clinicId),
 					isNull(consentRequests.answeredAt)
 				)
-			);
+			)
+			.returning({ requestedBy: consentRequests.requestedBy });
+		// The instructors who asked hear that they can now send the referral (no name, no detail).
+		const askedBy = [...new Set(answered.map((r) => r.requestedBy).filter((u) => u !== null))];
+		for (const userId of askedBy) {
+			for (const to of await instructorRecipient(tx, userId)) {
+				await queueNotification(tx, {
+					to,
+					kind: 'consent.given',
+					link: `${config().ORIGIN}/clients/${clientId}`
+				});
+			}
+		}
 		await recordAccess(tx, caller.access, {
 			action: 'consent.given',
 			outcome: 'success',

@@ -18,6 +18,7 @@ export const PROBLEM_TYPES = {
 	'intake-consent-required': { status: 409, title: 'Intake consent required' },
 	'consent-required': { status: 409, title: 'Consent to share required' },
 	'invalid-transition': { status: 409, title: 'Invalid state transition' },
+	'duplicate-referral': { status: 409, title: 'An open referral already exists' },
 	'storage-unavailable': { status: 503, title: 'Storage unavailable' },
 	'internal-error': { status: 500, title: 'Internal error' }
 } as const;

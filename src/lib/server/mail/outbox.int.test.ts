@@ -211,7 +211,7 @@ describe('the mail outbox', () => {
 			() => messagesTo(httpPort, to),
 			(m) => m.length === 1
 		);
-		expect(message!.subject).toBe('There is something new for you in Seamwell');
+		expect(message!.subject).toBe('A referral for your clinic');
 		expect(message!.text).toContain(link);
 	});
 

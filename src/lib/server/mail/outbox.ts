@@ -1,3 +1,4 @@
+import { NOTIFICATION_WORDS, type NotificationKind } from './notifications';
 import type { Executor } from '../db';
 import { outbox } from '../db/schema';
 
@@ -31,8 +32,8 @@ export interface Notification {
 	to: string;
 	/** Where to look, e.g. `${ORIGIN}/referrals/…`: an address in Seamwell, never the content. */
 	link: string;
-	/** What kind of notification, e.g. `referral.received`. */
-	kind: string;
+	/** What kind of notification: it decides the subject and first line. */
+	kind: NotificationKind;
 }
 
 /**
@@ -45,14 +46,15 @@ export async function queueNotification(
 	notification: Notification
 ): Promise<string> {
 	const link = new URL(notification.link).toString();
+	const words = NOTIFICATION_WORDS[notification.kind];
 	return queueMail(executor, {
 		to: notification.to,
 		kind: notification.kind,
-		subject: 'There is something new for you in Seamwell',
+		subject: words.subject,
 		text: [
-			'Hello,',
+			words.line,
 			'',
-			'There is something new for you in Seamwell. Sign in to see it:',
+			'Sign in to Seamwell to see it:',
 			'',
 			link,
 			'',

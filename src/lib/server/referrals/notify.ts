@@ -2,6 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import { config } from '../config';
 import type { Executor } from '../db';
 import { memberships, users } from '../db/schema';
+import type { NotificationKind } from '../mail/notifications';
 import { queueNotification } from '../mail/outbox';
 
 // Who hears of a referral's hand-offs, and the mail itself: only that there is something to
@@ -48,7 +49,7 @@ export async function instructorRecipient(
 export async function notifyAll(
 	executor: Executor,
 	recipients: readonly string[],
-	kind: string,
+	kind: NotificationKind,
 	referralId: string
 ): Promise<void> {
 	for (const to of recipients) {

@@ -3,6 +3,7 @@ import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import { SCOPES_TO_SEND_REFERRAL } from '../../domain/consent';
 import {
+	OPEN_SHARED_STATES,
 	REFERRAL_STATE_LABELS,
 	REFERRAL_STATES,
 	transitionsFrom,
@@ -34,6 +35,7 @@ import {
 import { fieldProblem, notFound, ProblemError, type ProblemSlug } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
 import { generateReferralLetter } from './letter';
+import type { NotificationKind } from '../mail/notifications';
 import { clinicRecipients, instructorRecipient, notifyAll } from './notify';
 import {
 	decideTransition,
@@ -189,6 +191,33 @@ export async function openReferral(
 				);
 			}
 		}
+		// A second referral to a clinic that is already acting on one is most often a slip:
+		// point to the open one, and allow a second only with a reason, kept in its history.
+		const [open] = await tx
+			.select({ id: referrals.id, state: referrals.state })
+			.from(referrals)
+			.where(
+				and(
+					eq(referrals.clientId, client.id),
+					eq(referrals.clinicId, clinic.id),
+					inArray(referrals.state, [...OPEN_SHARED_STATES])
+				)
+			)
+			.orderBy(desc(referrals.createdAt))
+			.limit(1);
+		if (open && !input.duplicateReason) {
+			throw new ProblemError('duplicate-referral', {
+				detail: `She already has a referral to this clinic that is ${REFERRAL_STATE_LABELS[open.state].toLowerCase()}. Open that one, or say why a second one is needed.`,
+				openReferralId: open.id,
+				errors: [
+					{
+						pointer: '/duplicateReason',
+						message:
+							'she already has an open referral to this clinic: say why a second one is needed'
+					}
+				]
+			});
+		}
 		const [row] = await tx
 			.insert(referrals)
 			.values({
@@ -209,7 +238,8 @@ export async function openReferral(
 			fromState: null,
 			toState: 'draft',
 			actorUserId: actor.userId,
-			actorRole: 'instructor'
+			actorRole: 'instructor',
+			reason: open ? `Second referral while one is open: ${input.duplicateReason}` : null
 		});
 		await recordAccess(tx, caller.access, {
 			action: 'referral.created',
@@ -621,7 +651,7 @@ const ROLE_WORDS: Record<Transition['by'], string> = {
 	assigned_physio: 'physiotherapist'
 };
 
-const MAIL_KIND: Partial<Record<ReferralState, string>> = {
+const MAIL_KIND: Partial<Record<ReferralState, NotificationKind>> = {
 	sent: 'referral.received',
 	accepted: 'referral.accepted',
 	declined: 'referral.declined',

@@ -5,7 +5,7 @@ import type { Caller } from '../context';
 import type { Transaction } from '../db';
 import { referralEvents, referrals } from '../db/schema';
 import type { SharingPair } from '../consents/grants';
-import { clinicRecipients, notifyAll } from './notify';
+import { clinicRecipients, instructorRecipient, notifyAll } from './notify';
 
 // When a client withdraws consent, the clinic can no longer act on her open referrals: each
 // moves to withdrawn with the reason "consent withdrawn", recorded as her doing, in the
@@ -25,7 +25,8 @@ export async function withdrawOpenReferrals(
 			id: referrals.id,
 			state: referrals.state,
 			clinicId: referrals.clinicId,
-			physioId: referrals.physioId
+			physioId: referrals.physioId,
+			createdBy: referrals.createdBy
 		})
 		.from(referrals)
 		.where(
@@ -56,12 +57,12 @@ export async function withdrawOpenReferrals(
 			target: { type: 'referral', id: referral.id },
 			clientId: pair.clientId
 		});
-		await notifyAll(
-			tx,
-			await clinicRecipients(tx, referral.clinicId, referral.physioId),
-			'referral.withdrawn',
-			referral.id
-		);
+		// Both sides hear that sharing ended: the clinic, and the instructor who referred her.
+		const recipients = [
+			...(await clinicRecipients(tx, referral.clinicId, referral.physioId)),
+			...(await instructorRecipient(tx, referral.createdBy))
+		];
+		await notifyAll(tx, [...new Set(recipients)], 'referral.sharing_ended', referral.id);
 	}
 	return open.length;
 }

@@ -156,8 +156,22 @@ describe('sending needs consent', () => {
 		// The referral letter was made from the copy the clinic received, and stored.
 		const letter = await getObject(letterKey(id));
 		expect(letter.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+		// The instructor who asked hears she can send now; her own words, no name or detail.
+		const toldGiven = (await mailsTo(instructor.email, since)).filter(
+			(m) => m.kind === 'consent.given'
+		);
+		expect(toldGiven).toHaveLength(1);
+		expect(toldGiven[0]!.subject).toBe(
+			'A client gave consent to share — you can now send the referral'
+		);
+		expect(toldGiven[0]!.text).not.toContain(client.name);
+		expect(toldGiven[0]!.text).not.toContain(clinic.name);
+
 		const [received] = await mailsTo(physio.email, since);
-		expect(received).toMatchObject({ kind: 'referral.received' });
+		expect(received).toMatchObject({
+			kind: 'referral.received',
+			subject: 'A referral for your clinic'
+		});
 		expect(received!.text).toContain(`/referrals/${id}`);
 		expect(received!.text).not.toContain(client.name);
 
@@ -214,6 +228,15 @@ describe('withdrawing consent', () => {
 		});
 		const since = new Date(Date.now() - 1000);
 
+		// The confirmation names what withdrawing will end: the two open referrals, not the rest.
+		const before = await getConsentOverview(client.caller);
+		const open = before.grants.find((g) => g.id === consentId)!.openReferrals;
+		expect(open.map((r) => r.id).sort()).toEqual([sent, accepted].sort());
+		expect(open.find((r) => r.id === accepted)).toMatchObject({
+			state: 'accepted',
+			physioName: physio.name
+		});
+
 		const result = await withdrawConsent(client.caller, consentId);
 		expect(result.referralsWithdrawn).toBe(2);
 		expect(await stateOf(sent)).toBe('withdrawn');
@@ -232,8 +255,15 @@ describe('withdrawing consent', () => {
 			reason: 'consent withdrawn',
 			actorUserId: client.userId
 		});
+		// Both sides are told sharing ended: the physio and the instructor who referred her.
 		const toClinic = await mailsTo(physio.email, since);
-		expect(toClinic.filter((m) => m.kind === 'referral.withdrawn')).toHaveLength(2);
+		expect(toClinic.filter((m) => m.kind === 'referral.sharing_ended')).toHaveLength(2);
+		const toInstructor = (await mailsTo(instructor.email, since)).filter(
+			(m) => m.kind === 'referral.sharing_ended'
+		);
+		expect(toInstructor).toHaveLength(2);
+		expect(toInstructor[0]!.subject).toBe('Sharing ended for one of your referrals');
+		expect(toInstructor[0]!.text).not.toContain(client.name);
 		const logged = await logRows(client.userId);
 		expect(logged.map((r) => r.action)).toEqual(
 			expect.arrayContaining(['consent.withdrawn', 'referral.transitioned'])
@@ -341,6 +371,43 @@ describe('giving consent', () => {
 			(await listConsents(otherAdmin.caller, { limit: 100 })).items.map((i) => i.id)
 		).not.toContain(id);
 		expect(await statusOf(listConsents(instructor.caller, { limit: 25 }))).toBe(403);
+	});
+});
+
+describe('a second referral to the same clinic', () => {
+	it('is refused with a link to the open one, allowed with a reason kept in its history', async () => {
+		const client = await clientWithHistory();
+		await addConsent(client, studio, clinic, ['referral', 'screenings']);
+		const first = (await draftFor(client)).id;
+		// A draft is not yet the clinic's business: a second draft beside it is fine.
+		const secondDraft = (await draftFor(client)).id;
+		await transitionReferral(instructor.caller, first, { to: 'sent', reason: null });
+
+		const refused = await problemOf(draftFor(client));
+		expect(refused.status).toBe(409);
+		expect(refused.type).toMatch(/duplicate-referral$/);
+		expect((refused as unknown as { openReferralId: string }).openReferralId).toBe(first);
+		expect(refused.errors?.map((e) => e.pointer)).toEqual(['/duplicateReason']);
+
+		// Another clinic is not a duplicate.
+		expect(await statusOf(draftFor(client, otherClinic.id))).toBe(200);
+
+		const { id } = await openReferral(instructor.caller, {
+			clientId: client.clientId,
+			clinicId: clinic.id,
+			reason: 'A second look at the scar (invented).',
+			urgency: 'routine',
+			redFlags: [],
+			duplicateReason: 'Separate question about her caesarean scar'
+		});
+		const [created] = await db()
+			.select()
+			.from(referralEvents)
+			.where(eq(referralEvents.referralId, id));
+		expect(created!.reason).toBe(
+			'Second referral while one is open: Separate question about her caesarean scar'
+		);
+		expect(secondDraft).not.toBe(id);
 	});
 });
 

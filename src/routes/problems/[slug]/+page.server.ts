@@ -23,6 +23,8 @@ const EXPLANATIONS: Record<ProblemSlug, string> = {
 	'consent-required':
 		'The client has not granted the sharing this needs (for a referral: `referral` and `screenings`).',
 	'invalid-transition': 'The record cannot move to that state from the state it is in now.',
+	'duplicate-referral':
+		'The client already has a referral to this clinic that is sent or accepted; `openReferralId` names it. Open that one, or send `duplicateReason` to say why a second one is needed.',
 	'storage-unavailable': 'Document storage did not answer. Nothing was saved; try again shortly.',
 	'internal-error':
 		'Something went wrong on Seamwell’s side. Nothing was saved half-way. Quote the reference in `detail` to support.'

@@ -1,4 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import type { FormErrors } from '$lib/clients/form';
 import { referralFromForm } from '$lib/referrals/form';
 import { failFromProblem } from '$lib/server/clients/actions';
 import { listClients } from '$lib/server/clients/service';
@@ -41,6 +42,14 @@ export const actions: Actions = {
 		try {
 			({ id } = await openReferral(caller, parsed.data));
 		} catch (caught) {
+			// Point to the referral she already has, so the instructor can open it instead.
+			if (caught instanceof ProblemError && caught.slug === 'duplicate-referral') {
+				return fail(409, {
+					values: parsed.values,
+					errors: { duplicateReason: caught.init.detail } as FormErrors,
+					openReferralId: String(caught.init.openReferralId)
+				});
+			}
 			return failFromProblem(caught, parsed.values);
 		}
 		redirect(303, `/referrals/${id}`);

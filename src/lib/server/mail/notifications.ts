@@ -1,0 +1,49 @@
+/**
+ * The words of every notification Seamwell sends: a subject and a first line per kind, so a
+ * reader can triage her inbox. They say what happened and where to look — never a client's
+ * name, a measurement, a finding, a clearance or a condition: those stay behind the sign-in.
+ */
+export const NOTIFICATION_WORDS = {
+	'referral.received': {
+		subject: 'A referral for your clinic',
+		line: 'A studio has sent your clinic a referral. Sign in to read it and answer.'
+	},
+	'referral.accepted': {
+		subject: 'Your referral was accepted',
+		line: 'A clinic has accepted a referral you sent. Sign in to see who will see her.'
+	},
+	'referral.declined': {
+		subject: 'Your referral was declined',
+		line: 'A clinic has declined a referral you sent. Sign in to read its reason.'
+	},
+	'referral.assessed': {
+		subject: 'An assessment is ready for one of your referrals',
+		line: 'A physiotherapist has assessed a client you referred. Sign in to see what she shared.'
+	},
+	'referral.closed': {
+		subject: 'A referral was closed',
+		line: 'A clinic has closed a referral you sent. Sign in to see it.'
+	},
+	'referral.withdrawn': {
+		subject: 'A referral to your clinic was withdrawn',
+		line: 'The studio has withdrawn a referral it sent your clinic. Sign in to see it.'
+	},
+	'referral.sharing_ended': {
+		subject: 'Sharing ended for one of your referrals',
+		line: 'A client has withdrawn her consent to share, so her open referral has ended. What was already shared stays on record.'
+	},
+	'document.shared': {
+		subject: 'A clinic shared a document with your studio',
+		line: 'A physiotherapist has shared a document on one of your referrals. Sign in to read it.'
+	},
+	'consent.requested': {
+		subject: 'Your studio asks before sharing your record',
+		line: 'Your studio would like to share your record with a clinic, and asks for your consent first.'
+	},
+	'consent.given': {
+		subject: 'A client gave consent to share — you can now send the referral',
+		line: 'A client has given her consent to share with a clinic. Sign in to send her referral.'
+	}
+} as const satisfies Record<string, { subject: string; line: string }>;
+
+export type NotificationKind = keyof typeof NOTIFICATION_WORDS;
