@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '../db';
 import { getObject } from '../storage';
+import { listClientReferrals } from './for-client';
 import { letterKey } from './letter';
 import { referralEvents, referrals } from '../db/schema';
 import {
@@ -408,6 +409,44 @@ describe('a second referral to the same clinic', () => {
 			'Second referral while one is open: Separate question about her caesarean scar'
 		);
 		expect(secondDraft).not.toBe(id);
+	});
+});
+
+describe('her referrals, as her studio and she herself follow them', () => {
+	it('the instructor sees every one with its state and the clinic’s note; she sees only sent ones; others 404', async () => {
+		const client = await clientWithHistory();
+		await addConsent(client, studio, clinic, ['referral', 'screenings']);
+		const draft = (await draftFor(client)).id;
+		const sent = (await draftFor(client, otherClinic.id)).id;
+		const accepted = (await draftFor(client)).id;
+		await transitionReferral(instructor.caller, accepted, { to: 'sent', reason: null });
+		await transitionReferral(physio.caller, accepted, {
+			to: 'accepted',
+			reason: 'We will see her on Tuesday (invented).'
+		});
+		await db()
+			.update(referrals)
+			.set({ state: 'sent', sentAt: new Date() })
+			.where(eq(referrals.id, sent));
+
+		const studioView = await listClientReferrals(instructor.caller, client.clientId);
+		expect(studioView.map((r) => r.id).sort()).toEqual([draft, sent, accepted].sort());
+		expect(studioView.find((r) => r.id === accepted)).toMatchObject({
+			state: 'accepted',
+			clinicName: clinic.name,
+			clinicNote: 'We will see her on Tuesday (invented).'
+		});
+
+		const herView = await listClientReferrals(client.caller, client.clientId);
+		expect(herView.map((r) => r.id).sort()).toEqual([sent, accepted].sort());
+
+		const stranger = await makeMember(await makeOrg('studio', 'elsewhere'), 'instructor');
+		expect(await statusOf(listClientReferrals(stranger.caller, client.clientId))).toBe(404);
+		expect(await statusOf(listClientReferrals(physio.caller, client.clientId))).toBe(404);
+		const other = await makeClient(studio, 'other');
+		expect(await statusOf(listClientReferrals(other.caller, client.clientId))).toBe(404);
+		const [refused] = await logRows(stranger.userId, 'referral.listed');
+		expect(refused).toMatchObject({ outcome: 'refused' });
 	});
 });
 

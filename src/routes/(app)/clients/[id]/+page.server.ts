@@ -12,6 +12,7 @@ import {
 	updateClient
 } from '$lib/server/clients/service';
 import { mayWriteClient } from '$lib/server/clients/policy';
+import { listClientReferrals } from '$lib/server/referrals/for-client';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
@@ -20,7 +21,10 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
 	const id = pageId(params.id);
 	const client = await forPage(getClient(caller, id));
-	const history = await forPage(getScreeningHistory(caller, id));
+	const [history, referrals] = await Promise.all([
+		forPage(getScreeningHistory(caller, id)),
+		forPage(listClientReferrals(caller, id))
+	]);
 	const charts = SITES.map((site) => ({
 		site,
 		title: siteLabelCapitalised(site),
@@ -29,6 +33,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	return {
 		client,
 		history,
+		referrals,
 		charts,
 		mayWrite: mayWriteClient(caller.actor, client),
 		// Her own factor for the table's mm estimates (display only, never a criterion).
