@@ -1,3 +1,4 @@
+import type { Outcome } from './screening';
 import type { Site } from './sites';
 import { SOURCES } from './sources';
 
@@ -122,11 +123,14 @@ export function siteTrend<P extends TrendPoint>(points: readonly P[]): SiteTrend
 /** What trends and charts need of a screening; sites not recorded are skipped. */
 export interface ScreeningWidths {
 	takenAt: Date | string;
+	/** The screening's outcome, when known: charts mark each point by it. */
+	outcome?: Outcome;
 	sites: Partial<Record<Site, { widthFingers: number; widthMm?: number | null }>>;
 }
 
 export interface SiteTrendPoint extends TrendPoint {
 	widthMm: number | null;
+	outcome: Outcome | null;
 }
 
 function pointsForSite(screenings: readonly ScreeningWidths[], site: Site): SiteTrendPoint[] {
@@ -137,7 +141,8 @@ function pointsForSite(screenings: readonly ScreeningWidths[], site: Site): Site
 			{
 				takenAt: screening.takenAt,
 				widthFingers: measure.widthFingers,
-				widthMm: measure.widthMm ?? null
+				widthMm: measure.widthMm ?? null,
+				outcome: screening.outcome ?? null
 			}
 		];
 	});
@@ -160,6 +165,8 @@ export interface ChartPoint {
 	fingers: number;
 	/** Only where a width was measured in mm. */
 	mm?: number;
+	/** The screening's outcome, where known. */
+	outcome?: Outcome;
 }
 
 function chartPointsForSite(screenings: readonly ScreeningWidths[], site: Site): ChartPoint[] {
@@ -169,6 +176,7 @@ function chartPointsForSite(screenings: readonly ScreeningWidths[], site: Site):
 			fingers: point.widthFingers
 		};
 		if (point.widthMm !== null) chartPoint.mm = point.widthMm;
+		if (point.outcome !== null) chartPoint.outcome = point.outcome;
 		return chartPoint;
 	});
 }

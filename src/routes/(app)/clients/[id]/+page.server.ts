@@ -2,7 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { SITES, siteLabelCapitalised } from '$lib/domain';
 import { consentFromForm } from '$lib/clients/form';
 import { failFromProblem } from '$lib/server/clients/actions';
-import { siteChartGeometry } from '$lib/server/clients/chart';
+import { combinedChartGeometry, siteChartGeometry } from '$lib/server/clients/chart';
 import {
 	assertMayWriteClient,
 	examinerFactor,
@@ -35,6 +35,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		history,
 		referrals,
 		charts,
+		combined: combinedChartGeometry(history.series),
 		mayWrite: mayWriteClient(caller.actor, client),
 		// Her own factor for the table's mm estimates (display only, never a criterion).
 		fingerFactor: await examinerFactor(caller)
