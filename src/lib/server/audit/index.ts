@@ -1,6 +1,7 @@
 export { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } from './actions';
 export {
 	recordAccess,
+	recordAccesses,
 	recordRefusal,
 	hasRecordedRefusal,
 	subjectKeyFor,

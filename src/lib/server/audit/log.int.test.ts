@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { requireEnv } from '../../../../tests/support/services';
 import { db } from '../db';
 import { accessLog, subjectKeys } from '../db/schema';
-import { recordAccess, recordRefusal, type AccessContext } from './writer';
+import { recordAccess, recordAccesses, recordRefusal, type AccessContext } from './writer';
 import type { AuditAction } from './actions';
 import { sealPending } from './sealer';
 import { createTestClient } from './testing/client';
@@ -38,6 +38,48 @@ async function connect(url: string) {
 }
 
 describe('the access-log writer', () => {
+	it('records a batch in order with one key per client, creating only the missing keys', async () => {
+		const who = context();
+		const known = await createTestClient(db());
+		const fresh = await createTestClient(db());
+		await db().transaction((tx) =>
+			recordAccess(tx, who, { action: 'client.read', outcome: 'success', clientId: known })
+		);
+		const [{ key: knownKey }] = (await db()
+			.select({ key: subjectKeys.key })
+			.from(subjectKeys)
+			.where(eq(subjectKeys.clientId, known))) as [{ key: string }];
+		await db().transaction((tx) =>
+			recordAccesses(tx, who, [
+				{
+					action: 'client.listed',
+					outcome: 'success',
+					target: { type: 'client', id: known },
+					clientId: known
+				},
+				{
+					action: 'client.listed',
+					outcome: 'success',
+					target: { type: 'client', id: fresh },
+					clientId: fresh
+				},
+				{
+					action: 'client.listed',
+					outcome: 'success',
+					target: { type: 'client', id: known },
+					clientId: known
+				}
+			])
+		);
+		const rows = (await rowsOf(who.userId!)).reverse().slice(1);
+		expect(rows.map((r) => r.targetId)).toEqual([known, fresh, known]);
+		expect(rows[0]!.subjectKey).toBe(knownKey);
+		expect(rows[2]!.subjectKey).toBe(knownKey);
+		expect(rows[1]!.subjectKey).toBeTruthy();
+		expect(rows[1]!.subjectKey).not.toBe(knownKey);
+		expect(new Set(rows.map((r) => r.id)).size).toBe(3);
+	});
+
 	it('records each field, with a subject key in place of the client id', async () => {
 		const who = context();
 		const clientId = await createTestClient(db());

@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm';
+import { inArray } from 'drizzle-orm';
 import { db, type Executor } from '../db';
 import { accessLog, subjectKeys } from '../db/schema';
 import { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } from './actions';
@@ -44,25 +44,47 @@ export async function recordAccess(
 	context: AccessContext,
 	event: AccessEvent
 ): Promise<void> {
-	// Types already say so; this holds against casts and untyped callers too.
-	if (!knownActions.has(event.action)) throw new Error(`unknown access-log action ${event.action}`);
-	if (!knownOutcomes.has(event.outcome)) {
-		throw new Error(`unknown access-log outcome ${event.outcome}`);
+	await recordAccesses(executor, context, [event]);
+}
+
+/**
+ * Records several accesses in the caller's transaction with a fixed number of statements,
+ * whatever their count: a list page of 25 clients writes its 25 rows in one insert.
+ */
+export async function recordAccesses(
+	executor: Executor,
+	context: AccessContext,
+	events: readonly AccessEvent[]
+): Promise<void> {
+	if (events.length === 0) return;
+	for (const event of events) {
+		// Types already say so; this holds against casts and untyped callers too.
+		if (!knownActions.has(event.action)) {
+			throw new Error(`unknown access-log action ${event.action}`);
+		}
+		if (!knownOutcomes.has(event.outcome)) {
+			throw new Error(`unknown access-log outcome ${event.outcome}`);
+		}
 	}
-	const subjectKey = event.clientId ? await subjectKeyFor(executor, event.clientId) : null;
-	await executor.insert(accessLog).values({
-		actorUserId: context.userId,
-		actorRole: context.role,
-		actorOrganisationId: context.organisationId,
-		action: event.action,
-		targetType: event.target?.type ?? null,
-		targetId: event.target?.id ?? null,
-		subjectKey,
-		outcome: event.outcome,
-		clientAddress: context.address,
-		userAgent: context.userAgent?.slice(0, 512) ?? null
-	});
-	if (event.outcome !== 'success') refusalsRecorded.add(context);
+	const keys = await subjectKeysFor(
+		executor,
+		events.flatMap((e) => (e.clientId ? [e.clientId] : []))
+	);
+	await executor.insert(accessLog).values(
+		events.map((event) => ({
+			actorUserId: context.userId,
+			actorRole: context.role,
+			actorOrganisationId: context.organisationId,
+			action: event.action,
+			targetType: event.target?.type ?? null,
+			targetId: event.target?.id ?? null,
+			subjectKey: event.clientId ? (keys.get(event.clientId) ?? null) : null,
+			outcome: event.outcome,
+			clientAddress: context.address,
+			userAgent: context.userAgent?.slice(0, 512) ?? null
+		}))
+	);
+	if (events.some((e) => e.outcome !== 'success')) refusalsRecorded.add(context);
 }
 
 /** Request contexts that already have a refusal on record (see hasRecordedRefusal). */
@@ -91,16 +113,36 @@ export async function recordRefusal(
 
 /** The client's random subject key, created on first use. */
 export async function subjectKeyFor(executor: Executor, clientId: string): Promise<string> {
-	const inserted = await executor
+	const key = (await subjectKeysFor(executor, [clientId])).get(clientId);
+	if (!key) throw new Error('subject key vanished between insert and select');
+	return key;
+}
+
+/**
+ * The subject keys of several clients, creating the missing ones: one select when every key
+ * exists (the usual case), else an insert of the missing ones and a second select.
+ */
+async function subjectKeysFor(
+	executor: Executor,
+	clientIds: readonly string[]
+): Promise<Map<string, string>> {
+	const wanted = [...new Set(clientIds)];
+	if (wanted.length === 0) return new Map();
+	const read = async () =>
+		new Map(
+			(
+				await executor
+					.select({ clientId: subjectKeys.clientId, key: subjectKeys.key })
+					.from(subjectKeys)
+					.where(inArray(subjectKeys.clientId, wanted))
+			).map((row) => [row.clientId, row.key])
+		);
+	const found = await read();
+	const missing = wanted.filter((id) => !found.has(id));
+	if (missing.length === 0) return found;
+	await executor
 		.insert(subjectKeys)
-		.values({ clientId })
-		.onConflictDoNothing({ target: subjectKeys.clientId })
-		.returning({ key: subjectKeys.key });
-	if (inserted[0]) return inserted[0].key;
-	const [existing] = await executor
-		.select({ key: subjectKeys.key })
-		.from(subjectKeys)
-		.where(eq(subjectKeys.clientId, clientId));
-	if (!existing) throw new Error('subject key vanished between insert and select');
-	return existing.key;
+		.values(missing.map((clientId) => ({ clientId })))
+		.onConflictDoNothing({ target: subjectKeys.clientId });
+	return read();
 }

@@ -17,7 +17,7 @@ import {
 	type ClientPatchInput,
 	type ScreeningInputData
 } from '$lib/clients/schemas';
-import { recordAccess, recordRefusal, type AuditAction } from '../audit';
+import { recordAccess, recordAccesses, recordRefusal, type AuditAction } from '../audit';
 import { config } from '../config';
 import type { Caller } from '../context';
 import { db, type Executor } from '../db';
@@ -279,14 +279,16 @@ export async function listClients(
 			k: byName ? last.name : (last.lastScreenedAt?.toISOString() ?? null),
 			id: last.id
 		}));
-		for (const row of page.items) {
-			await recordAccess(tx, caller.access, {
-				action: 'client.listed',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			page.items.map((row) => ({
+				action: 'client.listed' as const,
+				outcome: 'success' as const,
 				target: { type: 'client', id: row.id },
 				clientId: row.id
-			});
-		}
+			}))
+		);
 		return { items: page.items.map(toSummary), nextCursor: page.nextCursor };
 	});
 }
@@ -582,14 +584,16 @@ export async function getOwnRecord(
 	const row = await clientFor(caller, actor.clientId, 'client.read', mayReadClient);
 	return db().transaction(async (tx) => {
 		const result = await history(tx, row.id);
-		for (const action of ['client.read', 'screening.read'] as const) {
-			await recordAccess(tx, caller.access, {
+		await recordAccesses(
+			tx,
+			caller.access,
+			(['client.read', 'screening.read'] as const).map((action) => ({
 				action,
-				outcome: 'success',
+				outcome: 'success' as const,
 				target: { type: 'client', id: row.id },
 				clientId: row.id
-			});
-		}
+			}))
+		);
 		return { client: toDetail(row), history: result };
 	});
 }

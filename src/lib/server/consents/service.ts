@@ -9,7 +9,7 @@ import {
 	type ShareScope
 } from '../../domain/consent';
 import { OPEN_SHARED_STATES, type ReferralState } from '../../domain/referral';
-import { recordAccess } from '../audit';
+import { recordAccess, recordAccesses } from '../audit';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
@@ -115,14 +115,16 @@ export async function listConsents(
 			t: last.startsAt.toISOString(),
 			id: last.id
 		}));
-		for (const row of page.items) {
-			await recordAccess(tx, caller.access, {
-				action: 'consent.read',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			page.items.map((row) => ({
+				action: 'consent.read' as const,
+				outcome: 'success' as const,
 				target: { type: 'consent', id: row.id },
 				clientId: row.clientId
-			});
-		}
+			}))
+		);
 		return { items: page.items.map((row) => toItem(row, now)), nextCursor: page.nextCursor };
 	});
 }

@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { CLINIC_VISIBLE_STATES, type ReferralState } from '../../domain/referral';
-import { recordAccess } from '../audit';
+import { recordAccesses } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import { clients, organisations, referralEvents, referrals, users } from '../db/schema';
@@ -90,14 +90,16 @@ export async function listClientReferrals(
 					)
 					.orderBy(desc(referralEvents.at), desc(referralEvents.id))
 			: [];
-		for (const row of rows) {
-			await recordAccess(tx, caller.access, {
-				action: 'referral.listed',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			rows.map((row) => ({
+				action: 'referral.listed' as const,
+				outcome: 'success' as const,
 				target: { type: 'referral', id: row.id },
 				clientId: client.id
-			});
-		}
+			}))
+		);
 		return rows.map((row) => ({
 			id: row.id,
 			state: row.state,

@@ -17,7 +17,7 @@ import type {
 	ReferralListItem,
 	ReferralScreening
 } from '$lib/referrals/types';
-import { recordAccess, recordRefusal, type AuditAction } from '../audit';
+import { recordAccess, recordAccesses, recordRefusal, type AuditAction } from '../audit';
 import { sharingState } from '../consents/grants';
 import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
@@ -419,21 +419,26 @@ async function logListed(
 		const known = new Map(seen.map((s) => [s.referralId, s.state]));
 		toLog = items.filter((i) => known.get(i.referral.id) !== i.referral.state);
 	}
-	for (const item of toLog) {
-		await recordAccess(tx, caller.access, {
-			action: 'referral.listed',
-			outcome: 'success',
+	if (toLog.length === 0) return;
+	await recordAccesses(
+		tx,
+		caller.access,
+		toLog.map((item) => ({
+			action: 'referral.listed' as const,
+			outcome: 'success' as const,
 			target: { type: 'referral', id: item.referral.id },
 			clientId: item.referral.clientId
+		}))
+	);
+	await tx
+		.insert(referralListViews)
+		.values(
+			toLog.map((item) => ({ userId, referralId: item.referral.id, state: item.referral.state }))
+		)
+		.onConflictDoUpdate({
+			target: [referralListViews.userId, referralListViews.referralId],
+			set: { state: sql`excluded.state`, seenAt: new Date() }
 		});
-		await tx
-			.insert(referralListViews)
-			.values({ userId, referralId: item.referral.id, state: item.referral.state })
-			.onConflictDoUpdate({
-				target: [referralListViews.userId, referralListViews.referralId],
-				set: { state: item.referral.state, seenAt: new Date() }
-			});
-	}
 }
 
 /** How far back "answered recently" reaches on the dashboards. */
