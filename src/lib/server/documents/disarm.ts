@@ -26,7 +26,7 @@ const ALWAYS_REMOVED = [
 	'RichMediaContent'
 ].map((name) => PDFName.of(name));
 
-/** Keys whose value is an action: kept only when it is a /GoTo (then without /Next). */
+/** Keys whose value may be an action: kept only when it is a /GoTo (then without /Next). */
 const ACTION_KEYS = ['A', 'PA'].map((name) => PDFName.of(name));
 
 /** Annotations dropped from every page: attachments and media that run their own content. */
@@ -62,9 +62,10 @@ export function disarmPdf(doc: PDFDocument): void {
 	const cleanDict = (dict: PDFDict): void => {
 		for (const key of ALWAYS_REMOVED) dict.delete(key);
 		for (const key of ACTION_KEYS) {
+			// An action is a dictionary with /S; a structure element's /A (attributes) is not.
 			const action = lookup(dict.get(key));
-			if (action === undefined) continue;
-			if (action instanceof PDFDict && action.get(S) === GOTO) {
+			if (!(action instanceof PDFDict) || action.get(S) === undefined) continue;
+			if (action.get(S) === GOTO) {
 				action.delete(NEXT);
 			} else {
 				dict.delete(key);

@@ -88,7 +88,7 @@ export const ACTION_TYPES = new Set([
 	'/RichMediaExecute'
 ]);
 
-/** Keys whose value is an action: link and widget actions, open action, "previous" URI action. */
+/** Keys whose value may be an action: link, widget and outline actions, open action, a link's former URI action. */
 export const ACTION_KEYS = ['/A', '/OpenAction', '/PA'];
 /** Keys that hold scripts or script-bearing forms wherever they appear. */
 export const SCRIPT_KEYS = ['/JS', '/JavaScript', '/XFA', '/RichMediaContent'];
@@ -123,8 +123,9 @@ export function findActiveContent(json: QpdfJson): PdfFindings {
 		return object?.value ?? object?.stream?.dict ?? null;
 	};
 	const findings: PdfFindings = { active: [], embedded: [] };
+	// An action is a dictionary with /S. A structure element's /A holds attributes (no /S).
 	const isNavigation = (action: QpdfValue | undefined) =>
-		!isDict(action) || action['/S'] === '/GoTo';
+		!isDict(action) || action['/S'] === undefined || action['/S'] === '/GoTo';
 
 	const visitDict = (dict: Dict): void => {
 		const type = dict['/S'];

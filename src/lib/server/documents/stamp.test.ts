@@ -7,6 +7,7 @@ import {
 	embeddedFilePdf,
 	javaScriptPdf,
 	launchActionPdf,
+	navigationOnlyPdf,
 	pdfText,
 	pdfWordBoxes,
 	predictedObjectStreamJavaScriptPdf,
@@ -159,6 +160,14 @@ describe('stampPdf disarms the copy it serves', { timeout: 30_000 }, () => {
 		expect(words(pdfText(stamped, 1))).toContain('Assessment notes');
 		expect(words(pdfText(stamped, 1))).toContain(EXPECTED);
 		expect(await inspectPdf(stamped)).toMatchObject({ ok: true, pages: 1 });
+	});
+
+	it('keeps what only navigates: a /GoTo link and a structure element’s attributes', async () => {
+		const json = await parsed(await stampPdf(navigationOnlyPdf(), viewer));
+		const written = JSON.stringify(json.qpdf[1]);
+		expect(written).toContain('"/A":{"/D":');
+		expect(written).toContain('"/S":"/GoTo"');
+		expect(written).toContain('"/A":{"/O":"/Layout","/Placement":"/Block"}');
 	});
 
 	const hostile: Array<[string, () => Promise<Uint8Array> | Uint8Array]> = [
