@@ -48,10 +48,8 @@ function run(args: string[], limits: QpdfLimits): Promise<QpdfRun> {
 			{ timeout: limits.timeoutMs, maxBuffer: MAX_JSON_BYTES, encoding: 'utf8' },
 			(error, stdout, stderr) => {
 				if (error === null) return resolve({ status: 0, stdout, stderr });
-				const code = (error as NodeJS.ErrnoException).code;
-				if (code === 'ENOENT') return reject(new QpdfMissingError());
-				// prlimit answers 127 when it cannot find qpdf.
-				if (error.code === 127) return reject(new QpdfMissingError());
+				// No prlimit to start (ENOENT), or prlimit found no qpdf (127): a setup fault.
+				if (error.code === 'ENOENT' || error.code === 127) return reject(new QpdfMissingError());
 				// Killed for time, out of memory (a signal or std::bad_alloc) or too much output.
 				const status = typeof error.code === 'number' ? error.code : 2;
 				resolve({ status: status === 3 ? 3 : Math.max(status, 2), stdout, stderr });
