@@ -5,6 +5,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { ensureEnvFile, loadEnv, root } from './lib/env.mjs';
 import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
+import { ensureQpdfInstalled } from './lib/qpdf.mjs';
 import { bringUpDatabase, defaultDataDir } from './lib/stack.mjs';
 
 const dev = process.argv.includes('--dev');
@@ -32,6 +33,7 @@ process.on('SIGINT', () => shutdown(0));
 process.on('SIGTERM', () => shutdown(0));
 
 try {
+	ensureQpdfInstalled(log);
 	const database = await bringUpDatabase(env, { dataDir: defaultDataDir(root, env), log });
 	cleanups.push(() => database.stop());
 

@@ -65,11 +65,15 @@ function stage(name, cmd, args, extraEnv = {}) {
 	return ok;
 }
 
-/** Debian packages the tests use: chromium for the browser, poppler-utils to read PDFs back. */
-function ensureDebianPackages() {
+/**
+ * Debian packages the tests use: chromium for the browser, poppler-utils to read PDFs back, qpdf
+ * for the app's own PDF check (unit, integration and browser tests all upload or stamp PDFs).
+ */
+function ensureDebianPackages({ browser }) {
 	const missing = [
-		['/usr/bin/chromium', 'chromium'],
-		['/usr/bin/pdftotext', 'poppler-utils']
+		...(browser ? [['/usr/bin/chromium', 'chromium']] : []),
+		['/usr/bin/pdftotext', 'poppler-utils'],
+		['/usr/bin/qpdf', 'qpdf']
 	].filter(([path]) => !existsSync(path));
 	if (missing.length === 0) return;
 	const names = missing.map(([, name]) => name);
@@ -86,7 +90,9 @@ try {
 		stage('lint', 'npx', ['eslint', '.', '--max-warnings', '0']);
 		stage('types', 'npm', ['run', '-s', 'check']);
 	}
-	if (want('unit') || want('browser')) ensureDebianPackages();
+	if (want('unit') || want('integration') || want('browser')) {
+		ensureDebianPackages({ browser: want('browser') });
+	}
 	if (want('unit')) stage('unit', 'npx', ['vitest', 'run', '--project', 'unit', ...filters]);
 
 	if (want('integration') || want('browser')) {

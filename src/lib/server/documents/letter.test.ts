@@ -71,7 +71,7 @@ function letterInput(overrides: Partial<ReferralLetterInput> = {}): ReferralLett
 	};
 }
 
-describe('renderReferralLetter', () => {
+describe('renderReferralLetter', { timeout: 30_000 }, () => {
 	// Rendering takes a few hundred milliseconds (font subsetting): share the plain letter.
 	let plain: Promise<Uint8Array> | undefined;
 	const plainLetter = () => (plain ??= renderReferralLetter(letterInput()));

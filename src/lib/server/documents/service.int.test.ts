@@ -5,15 +5,24 @@ import { join } from 'node:path';
 import { and, eq, gt } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
+	activeEverywherePdf,
 	embeddedFilePdf,
 	encryptedPdf,
 	javaScriptPdf,
+	launchActionPdf,
 	paddedPdf,
 	pdfText,
 	pngBytes,
 	polyglotPdf,
+	predictedObjectStreamJavaScriptPdf,
+	rawPdf,
+	richMediaPdf,
+	submitFormOnPageOpenPdf,
 	truncatedPdf,
-	validPdf
+	uncGoToRPdf,
+	uriOnOpenPdf,
+	validPdf,
+	xfaPdf
 } from '../../../../tests/fixtures/pdf';
 import { requireEnv, superuser } from '../../../../tests/support/services';
 import { db } from '../db';
@@ -45,6 +54,8 @@ import {
 	updateDocument,
 	uploadDocument
 } from './service';
+import { findActiveContent } from './pdf-check';
+import { readPdf } from './qpdf';
 import { sweepOrphans } from './sweeper';
 
 // Assessment documents against the real PostgreSQL and the real s3rver: hostile files refused
@@ -121,6 +132,22 @@ describe('hostile files', () => {
 		['a truncated PDF', truncatedPdf, 'truncated'],
 		['an encrypted PDF', encryptedPdf, 'encrypted'],
 		['a PDF with JavaScript', () => javaScriptPdf(true), 'active_content'],
+		[
+			'JavaScript in a PNG-predicted object stream',
+			predictedObjectStreamJavaScriptPdf,
+			'active_content'
+		],
+		['a web address opened with the file', uriOnOpenPdf, 'active_content'],
+		['a form submitted when the page opens', submitFormOnPageOpenPdf, 'active_content'],
+		['a link to a UNC path', uncGoToRPdf, 'active_content'],
+		['a launch action', launchActionPdf, 'active_content'],
+		['an XFA form', xfaPdf, 'active_content'],
+		['a RichMedia annotation', richMediaPdf, 'active_content'],
+		[
+			'a PDF the parser cannot read whole',
+			() => Buffer.from('%PDF-1.7\n1 0 obj << /Type /Catalog /Pages 2 0 R >>\n%%EOF\n'),
+			'unreadable'
+		],
 		['a PDF with an embedded file', embeddedFilePdf, 'embedded_file'],
 		['a PDF + HTML polyglot', () => polyglotPdf('html'), 'trailing_data'],
 		['a PDF + ZIP polyglot', () => polyglotPdf('zip'), 'trailing_data'],
@@ -144,11 +171,26 @@ describe('hostile files', () => {
 		});
 	}
 
+	it('says "we could not read every part of this PDF" for a file the parser cannot read', async () => {
+		// Every object three bytes from where the cross-reference table says: readers guess.
+		const sound = rawPdf([
+			'<< /Type /Catalog /Pages 2 0 R >>',
+			'<< /Type /Pages /Kids [3 0 R] /Count 1 >>',
+			'<< /Type /Page /Parent 2 0 R /MediaBox [0 0 200 200] >>'
+		]);
+		const text = Buffer.from(sound).toString('latin1');
+		const shifted = Buffer.from(text.replace('%PDF-1.7\n', '%PDF-1.7\n   '), 'latin1');
+		const problem = await problemOf(upload(physio, setup.referralId, shifted));
+		expect(problem.code).toBe('unreadable');
+		expect(problem.detail).toMatch(/we could not read every part of this PDF/i);
+		expect(problem.errors?.[0]?.message).toMatch(/we could not read every part of this PDF/i);
+	});
+
 	it('records each refused file in the access log, as a failed upload', async () => {
 		const failed = (await logRows(physio.userId, 'document.uploaded')).filter(
 			(r) => r.targetId === setup.referralId && r.outcome === 'failed'
 		);
-		expect(failed.length).toBe(hostile.length);
+		expect(failed.length).toBe(hostile.length + 1);
 	});
 });
 
@@ -342,6 +384,27 @@ describe('sharing with the studio', () => {
 		expect(sha256(first.bytes)).not.toBe(row!.sha256);
 		const logged = await logRows(instructor.userId, 'document.downloaded');
 		expect(logged[0]).toMatchObject({ outcome: 'success', targetId: shared });
+	});
+
+	it('a stored file with actions (one an earlier check let through) downloads disarmed', async () => {
+		const { id } = await upload(physio, setup.referralId, await validPdf(), {
+			fileName: 'Accepted long ago.pdf'
+		});
+		const [row] = await db().select().from(documents).where(eq(documents.id, id));
+		const hostile = Buffer.from(await activeEverywherePdf());
+		await putObject(row!.storageKey, hostile, 'application/pdf');
+		await db()
+			.update(documents)
+			.set({ sha256: sha256(hostile) })
+			.where(eq(documents.id, id));
+
+		const { bytes } = await downloadDocument(physio.caller, id);
+		const read = await readPdf(bytes);
+		if (read.kind !== 'read') throw new Error(`the download is not a readable PDF: ${read.kind}`);
+		expect(findActiveContent(read.json)).toEqual({ active: [], embedded: [] });
+		expect(pdfText(bytes, 1)).toContain(`Downloaded by ${physio.name}`);
+		// The stored file is left as it was.
+		expect(sha256(await getObject(row!.storageKey))).toBe(sha256(hostile));
 	});
 
 	it('after consent with documents ends, the studio gets nothing more; the clinic keeps its own', async () => {

@@ -2,12 +2,24 @@ import { createHash } from 'node:crypto';
 import { PDFDocument } from 'pdf-lib';
 import { describe, expect, it } from 'vitest';
 import {
+	activeEverywherePdf,
 	danglingTransformPdf,
+	embeddedFilePdf,
+	javaScriptPdf,
+	launchActionPdf,
+	navigationOnlyPdf,
 	pdfText,
 	pdfWordBoxes,
-	validPdf
+	predictedObjectStreamJavaScriptPdf,
+	richMediaPdf,
+	submitFormOnPageOpenPdf,
+	uncGoToRPdf,
+	uriOnOpenPdf,
+	validPdf,
+	xfaPdf
 } from '../../../../tests/fixtures/pdf';
-import { inspectPdf } from './pdf-check';
+import { findActiveContent, inspectPdf } from './pdf-check';
+import { readPdf, type QpdfJson } from './qpdf';
 import { formatStampTime, stampPdf, stampText } from './stamp';
 
 const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
@@ -36,7 +48,7 @@ describe('stampText', () => {
 	});
 });
 
-describe('stampPdf', () => {
+describe('stampPdf', { timeout: 30_000 }, () => {
 	it('puts the stamp on every page of a 3-page PDF and leaves the original bytes alone', async () => {
 		const original = await validPdf({ pages: 3 });
 		const before = sha256(original);
@@ -108,4 +120,75 @@ describe('stampPdf', () => {
 		const text = words(pdfText(stamped, 1));
 		expect(text).toContain('Downloaded by Lucja Wasowska ? (Studio Ørsted) on 2 Dec 2026');
 	});
+});
+
+/** The stamped copy as qpdf reads it; fails the test when qpdf cannot read it cleanly. */
+async function parsed(bytes: Uint8Array): Promise<QpdfJson> {
+	const read = await readPdf(bytes);
+	if (read.kind !== 'read') throw new Error(`qpdf could not read the stamped copy: ${read.kind}`);
+	return read.json;
+}
+
+describe('stampPdf disarms the copy it serves', { timeout: 30_000 }, () => {
+	it('removes every action but /GoTo, scripts, attachments and XFA, keeping page and links within it', async () => {
+		const original = await activeEverywherePdf();
+		// The fixture really carries them all (the upload check would refuse it).
+		const before = findActiveContent(await parsed(original));
+		expect(before.active).toEqual(
+			expect.arrayContaining(['/OpenAction', '/AA /WC', '/AA /O', '/A', '/JavaScript', '/XFA'])
+		);
+		expect(before.embedded).toEqual(expect.arrayContaining(['/EmbeddedFiles', '/EF']));
+
+		const stamped = await stampPdf(original, viewer);
+		const json = await parsed(stamped);
+		expect(findActiveContent(json)).toEqual({ active: [], embedded: [] });
+		const written = JSON.stringify(json.qpdf[1]);
+		for (const gone of [
+			'app.alert',
+			'tracker.example',
+			'collector.example',
+			'calc.exe',
+			'run.sh'
+		]) {
+			expect(written).not.toContain(gone);
+		}
+		expect(written).not.toContain('/OpenAction');
+		expect(written).not.toContain('"/AA"');
+		expect(written).not.toContain('/Next');
+		// The in-document link is still there, and so is the page with its text and stamp.
+		expect(written).toContain('"/S":"/GoTo"');
+		expect(words(pdfText(stamped, 1))).toContain('Assessment notes');
+		expect(words(pdfText(stamped, 1))).toContain(EXPECTED);
+		expect(await inspectPdf(stamped)).toMatchObject({ ok: true, pages: 1 });
+	});
+
+	it('keeps what only navigates: a /GoTo link and a structure element’s attributes', async () => {
+		const json = await parsed(await stampPdf(navigationOnlyPdf(), viewer));
+		const written = JSON.stringify(json.qpdf[1]);
+		expect(written).toContain('"/A":{"/D":');
+		expect(written).toContain('"/S":"/GoTo"');
+		expect(written).toContain('"/A":{"/O":"/Layout","/Placement":"/Block"}');
+	});
+
+	const hostile: Array<[string, () => Promise<Uint8Array> | Uint8Array]> = [
+		['JavaScript in a predicted object stream', predictedObjectStreamJavaScriptPdf],
+		['JavaScript on open', () => javaScriptPdf(true)],
+		['a web address on open', uriOnOpenPdf],
+		['a form submitted on page open', submitFormOnPageOpenPdf],
+		['a link to a UNC path', uncGoToRPdf],
+		['a launch action', launchActionPdf],
+		['an XFA form', xfaPdf],
+		['a RichMedia annotation', richMediaPdf],
+		['an attached file', embeddedFilePdf]
+	];
+	for (const [label, make] of hostile) {
+		it(`serves ${label} without it`, async () => {
+			const original = await make();
+			const before = findActiveContent(await parsed(original));
+			expect([...before.active, ...before.embedded].length).toBeGreaterThan(0);
+			const stamped = await stampPdf(original, viewer);
+			expect(findActiveContent(await parsed(stamped))).toEqual({ active: [], embedded: [] });
+			expect(words(pdfText(stamped, 1))).toContain(EXPECTED);
+		});
+	}
 });

@@ -1,5 +1,7 @@
 import { degrees, PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
+import { disarmPdf } from './disarm';
 import { embedPlexFont, fitToFont, wrapText } from './fonts';
+import { rewritePlain } from './qpdf';
 
 export interface StampOptions {
 	viewerName: string;
@@ -81,12 +83,14 @@ function drawFooter(page: PDFPage, text: string, font: PDFFont): void {
 }
 
 /**
- * A copy of `original` with a line naming who downloaded it and when at the foot of every page,
- * in IBM Plex Sans. The input bytes are never changed. The PDF must have passed `inspectPdf`
- * (pdf-lib cannot open encrypted files).
+ * A copy of `original` for a reader: rewritten plainly by qpdf, disarmed (no action but
+ * in-document navigation, no scripts, attachments or XFA — ./disarm.ts), with a line naming who
+ * downloaded it and when at the foot of every page, in IBM Plex Sans. The input bytes are never
+ * changed. The PDF must have passed `inspectPdf` (encrypted files cannot be rewritten).
  */
 export async function stampPdf(original: Uint8Array, options: StampOptions): Promise<Uint8Array> {
-	const doc = await PDFDocument.load(original.slice(), { updateMetadata: false });
+	const doc = await PDFDocument.load(await rewritePlain(original), { updateMetadata: false });
+	disarmPdf(doc);
 	const regular = await embedPlexFont(doc, 'regular');
 	const text = fitToFont(regular, stampText(options));
 	for (const page of doc.getPages()) drawFooter(page, text, regular);
