@@ -8,7 +8,9 @@ test('the landing page says what Seamwell is for, with the caution, and is acces
 	await expect(page).toHaveTitle(/Seamwell/);
 	await expect(page.locator('html')).toHaveAttribute('lang', 'en');
 	await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
-	await expect(page.getByText('Screening is not an assessment', { exact: false })).toBeVisible();
+	// One caution per page, where it is read: not repeated in the footer.
+	await expect(page.getByRole('complementary', { name: 'Caution' })).toHaveCount(1);
+	await expect(page.getByText('Screening is not a diagnosis.')).toBeVisible();
 	await expectAccessible(page);
 	await page.screenshot({ path: 'test-results/landing.png', fullPage: true });
 });
