@@ -1,6 +1,7 @@
 import type { RequestEvent } from '@sveltejs/kit';
 import { randomUUID } from 'node:crypto';
 import { z } from 'zod';
+import { describeError, isDatabaseUnavailable } from '../db/errors';
 import { ProblemError, notFound, problem, validationProblem } from './problem';
 
 // The JSON API's edge: one wrapper per endpoint that enforces the conventions (same-origin
@@ -27,15 +28,39 @@ export function apiHandler(handler: Handler, options: ApiOptions = {}): Handler 
 			return await handler(event);
 		} catch (error) {
 			if (error instanceof ProblemError) return error.toResponse(event.url.pathname);
-			const errorId = randomUUID();
-			console.error(`[api ${errorId}] ${event.request.method} ${event.url.pathname}`, error);
-			return problem('internal-error', {
-				detail: `Something went wrong on our side. Reference ${errorId}.`,
-				instance: event.url.pathname,
-				errorId
-			});
+			return unexpectedProblem(event, error);
 		}
 	};
+}
+
+/**
+ * The answer to an error nobody turned into a problem: 503 when the database is briefly gone
+ * (nothing was committed; try again), else a 500 with a reference. The log gets the reference
+ * and what failed — a query by name, never its parameters.
+ */
+export function unexpectedProblem(event: RequestEvent, error: unknown): Response {
+	if (isDatabaseUnavailable(error)) return databaseUnavailable(event.url.pathname);
+	const errorId = randomUUID();
+	console.error(
+		`[api ${errorId}] ${event.request.method} ${event.route.id ?? event.url.pathname}: ${describeError(error)}`
+	);
+	return problem('internal-error', {
+		detail: `Something went wrong on our side. Reference ${errorId}.`,
+		instance: event.url.pathname,
+		errorId
+	});
+}
+
+/** How long a client should wait before trying again after losing the database. */
+export const RETRY_AFTER_SECONDS = 2;
+
+export function databaseUnavailable(instance?: string): Response {
+	return problem('database-unavailable', {
+		detail:
+			'Seamwell cannot reach its database for a moment. Nothing was saved; try again in a few seconds.',
+		instance,
+		headers: { 'Retry-After': String(RETRY_AFTER_SECONDS) }
+	});
 }
 
 function assertSameOrigin(event: RequestEvent): void {
