@@ -81,3 +81,12 @@ export function describeError(error: unknown): string {
 	}
 	return String(error).slice(0, 300);
 }
+
+/** One line for a background worker's log: a failed query by name, else the first line. */
+export function briefError(error: unknown): string {
+	const query = describeQueryFailure(error);
+	const unavailable = isDatabaseUnavailable(error) ? ' (database unavailable)' : '';
+	if (query) return query + unavailable;
+	const message = error instanceof Error ? error.message : String(error);
+	return message.split('\n')[0]!.slice(0, 300);
+}

@@ -1,6 +1,7 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import pg from 'pg';
 import type { Database, Executor } from '../db';
+import { briefError } from '../db/errors';
 import { outbox } from '../db/schema';
 import { deliver, type SendMail } from './transport';
 
@@ -237,7 +238,7 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 					if (failing) log('[mail] outbox worker: database reachable again');
 					failing = false;
 				} catch (error) {
-					if (!failing) log(`[mail] outbox worker: ${errorText(error)}`);
+					if (!failing) log(`[mail] outbox worker: ${briefError(error)}`);
 					failing = true;
 					schedule(pollMs);
 				}
@@ -263,7 +264,7 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 			if (listener === client) listener = null;
 			client.end().catch(() => {});
 			if (stopped) return;
-			if (error && !failing) log(`[mail] outbox listener: ${errorText(error)}`);
+			if (error && !failing) log(`[mail] outbox listener: ${briefError(error)}`);
 			reconnect = setTimeout(() => void listen(), 2_000);
 		};
 		client.on('notification', () => wake());
