@@ -49,12 +49,16 @@ export function isCrossOriginChange(request: Request, origin: string): boolean {
 	return request.headers.get('origin') !== origin;
 }
 
-/** A path whose percent-encoding does not decode (`/api/v1/clients/%E0%A4%A`). */
+/**
+ * A path whose percent-encoding does not decode (`/api/v1/clients/%E0%A4%A`), or decodes to a
+ * NUL. (The decoded value is used on purpose: a bundler drops a call whose result is unused.)
+ */
 export function isMalformedPath(pathname: string): boolean {
+	let decoded: string;
 	try {
-		decodeURI(pathname);
-		return false;
+		decoded = decodeURI(pathname);
 	} catch {
 		return true;
 	}
+	return decoded.includes('\u0000');
 }
