@@ -85,11 +85,12 @@ describe('caching', () => {
 
 describe('the same-origin rule for every change', () => {
 	it('a cross-origin sign-out with a JSON body is refused and the session lives on', async () => {
-		for (const headers of [
+		const attempts: Record<string, string>[] = [
 			{ origin: 'http://evil.example', 'content-type': 'application/json' },
 			{ 'content-type': 'application/json' },
 			{ origin: 'http://evil.example', 'content-type': 'text/plain' }
-		]) {
+		];
+		for (const headers of attempts) {
 			const res = await fetch(`${origin}/auth/signout`, {
 				method: 'POST',
 				headers: { cookie, ...headers },
