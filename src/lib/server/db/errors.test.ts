@@ -15,7 +15,7 @@ describe('describing a failed query for the log', () => {
 			cause
 		);
 		const line = describeError(error);
-		expect(line).toBe('query select "clients" failed (SQLSTATE 22007)');
+		expect(line).toBe('query select "clients" failed (code 22007)');
 		expect(line).not.toContain('Hana');
 		expect(line).not.toContain('zzz');
 	});

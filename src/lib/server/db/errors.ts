@@ -57,7 +57,7 @@ export function describeQueryFailure(error: unknown): string | null {
 		if (typeof query !== 'string') continue;
 		const inner = (e as { cause?: { code?: unknown } }).cause;
 		const code = typeof inner?.code === 'string' ? inner.code : 'unknown';
-		return `query ${queryName(query)} failed (SQLSTATE ${code})`;
+		return `query ${queryName(query)} failed (code ${code})`;
 	}
 	return null;
 }
