@@ -5,6 +5,8 @@ import { signIn, sql } from './support/signin';
 // sends it again.
 
 test('an admin sees failed mail and sends it again', async ({ page }) => {
+	// Sign-in, two page checks with axe and two screenshots: generous on a busy machine.
+	test.setTimeout(120_000);
 	const [mail] = await sql<{ id: string }>(
 		`insert into outbox ("to", subject, text, kind, state, attempts, last_error, created_at)
 		 values ('physio@clinic.example', 'There is something new for you in Seamwell', 'x',
