@@ -15,7 +15,7 @@ export default defineConfig({
 				extends: true,
 				test: {
 					name: 'unit',
-					include: ['src/**/*.test.ts'],
+					include: ['src/**/*.test.ts', 'scripts/**/*.test.ts'],
 					exclude: ['src/**/*.int.test.ts'],
 					environment: 'node'
 				}

@@ -11,7 +11,7 @@ if (!existsSync(join(root, '.env')) && !process.env.DATABASE_URL) {
 }
 const result = spawnSync('npx', ['tsx', 'scripts/audit-verify.ts', ...process.argv.slice(2)], {
 	cwd: root,
-	env: loadEnv(),
+	env: loadEnv({ stack: true }),
 	stdio: 'inherit'
 });
 process.exit(result.status ?? 1);

@@ -12,7 +12,7 @@ if (!existsSync(join(root, '.env'))) {
 	console.error('No .env yet: run `npm start` once first.');
 	process.exit(1);
 }
-const env = loadEnv();
+const env = loadEnv({ stack: true });
 const dataDir = defaultDataDir(root, env);
 const wasRunning = await isUp(env);
 

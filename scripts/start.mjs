@@ -1,11 +1,13 @@
 // `npm start`: PostgreSQL, the S3 fake, the mail fake, migrations, demo data and the app,
 // all on 127.0.0.1. `--dev` runs Vite's dev server instead of the production build.
-// Ctrl-C stops everything; data stays in .data/ for the next start.
+// The app and the fakes are supervised: one that dies is started again (with backoff) while
+// the rest keeps running. Ctrl-C stops everything; data stays in .data/ for the next start.
 import { spawn, spawnSync } from 'node:child_process';
 import { join } from 'node:path';
-import { ensureEnvFile, loadEnv, root } from './lib/env.mjs';
-import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
+import { ensureEnvFile, loadEnv, recordStackSettings, root } from './lib/env.mjs';
+import { mailReady, s3Ready, spawnMailFake, spawnS3Fake, waitForHttp } from './lib/fakes.mjs';
 import { ensureQpdfInstalled } from './lib/qpdf.mjs';
+import { supervise } from './lib/supervise.mjs';
 import { bringUpDatabase, defaultDataDir } from './lib/stack.mjs';
 
 const dev = process.argv.includes('--dev');
@@ -13,6 +15,8 @@ const log = (line) => console.log(`[seamwell] ${line}`);
 
 if (ensureEnvFile()) log('Wrote .env with freshly generated secrets (git-ignored).');
 const env = loadEnv();
+// `npm run audit:verify` and `npm run demo:reset` read these, to reach the same services.
+recordStackSettings(env);
 
 const cleanups = [];
 let stopping = false;
@@ -37,41 +41,52 @@ try {
 	const database = await bringUpDatabase(env, { dataDir: defaultDataDir(root, env), log });
 	cleanups.push(() => database.stop());
 
-	const fakes = await startFakes(env, {
-		s3Dir: join(root, '.data', 's3'),
-		mailStore: join(root, '.data', 'mail.json'),
+	const s3Dir = join(root, '.data', 's3');
+	const mailStore = join(root, '.data', 'mail.json');
+	const s3 = supervise({
+		name: 'S3 fake',
+		start: () => spawnS3Fake(env, { s3Dir }),
+		ready: (child) => s3Ready(env, child),
 		log
 	});
-	cleanups.push(() => fakes.stop());
+	cleanups.push(() => s3.stop());
+	const mail = supervise({
+		name: 'mail fake',
+		start: () => spawnMailFake(env, { mailStore }),
+		ready: (child) => mailReady(env, child),
+		log
+	});
+	cleanups.push(() => mail.stop());
+	await Promise.all([s3Ready(env, s3.child), mailReady(env, mail.child)]);
+	log(`S3 fake   ${env.S3_ENDPOINT} (bucket ${env.S3_BUCKET})`);
+	log(`Mail fake smtp://127.0.0.1:${env.MAIL_SMTP_PORT}, inbox ${env.MAIL_INBOX_URL}`);
 
 	runOrThrow('npx', ['tsx', 'scripts/demo.ts', '--if-empty'], env);
 
-	let app;
+	let startApp;
 	if (dev) {
 		// Vite itself, not through npx: npx does not pass Ctrl-C's SIGTERM on to its child.
 		const vite = join(root, 'node_modules', 'vite', 'bin', 'vite.js');
-		app = spawn(
-			process.execPath,
-			[vite, 'dev', '--host', env.HOST, '--port', env.PORT, '--strictPort'],
-			{
-				cwd: root,
-				env,
-				stdio: 'inherit'
-			}
-		);
+		startApp = () =>
+			spawn(
+				process.execPath,
+				[vite, 'dev', '--host', env.HOST, '--port', env.PORT, '--strictPort'],
+				{ cwd: root, env, stdio: 'inherit' }
+			);
 	} else {
 		log('Building the app (vite build) …');
 		runOrThrow('npx', ['vite', 'build', '--logLevel', 'warn'], env);
-		app = spawn(process.execPath, ['build'], { cwd: root, env, stdio: 'inherit' });
+		startApp = () => spawn(process.execPath, ['build'], { cwd: root, env, stdio: 'inherit' });
 	}
-	cleanups.push(() => stopChild(app));
-	app.on('exit', (code) => {
-		if (!stopping) {
-			console.error(`[seamwell] The app exited (code ${code}).`);
-			shutdown(code ?? 1);
-		}
+	const app = supervise({
+		name: 'app',
+		start: startApp,
+		ready: (child) => waitForHttp(`${env.ORIGIN}/healthz`, 'app', child, 120_000),
+		log
 	});
-	await waitForHttp(`${env.ORIGIN}/healthz`, 'app', app, 120_000);
+	cleanups.push(() => app.stop());
+	// The first start must succeed; afterwards a crash is restarted rather than fatal.
+	await waitForHttp(`${env.ORIGIN}/healthz`, 'app', app.child, 120_000);
 	printBanner();
 } catch (error) {
 	console.error(`[seamwell] ${error instanceof Error ? error.message : error}`);
@@ -100,6 +115,7 @@ Seamwell is up.
   Mail inbox  ${env.MAIL_INBOX_URL}   (JSON: ${env.MAIL_INBOX_URL}/api/messages?to=ADDRESS)
   S3 fake     ${env.S3_ENDPOINT}   PostgreSQL 127.0.0.1:${env.PGPORT}
 
+The app and the fakes restart by themselves if one of them stops (the output says so).
 Sign in: open the app, enter one of these addresses, then open the link from the mail inbox.
 ${accounts.map((a) => `  ${a.email.padEnd(width)}  ${a.description}`).join('\n')}
 

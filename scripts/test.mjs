@@ -30,6 +30,9 @@ const { env: testEnv, scratch } = throwawayEnv({
 	}
 });
 
+// The browser stage's database-restart test stops and starts this cluster.
+testEnv.PGDATA_DIR = join(scratch, 'pg');
+
 const buildDir = process.env.BUILD_TAG ? `build-${process.env.BUILD_TAG}` : 'build';
 
 const cleanups = [];
@@ -97,7 +100,7 @@ try {
 
 	if (want('integration') || want('browser')) {
 		const database = await bringUpDatabase(testEnv, {
-			dataDir: join(scratch, 'pg'),
+			dataDir: testEnv.PGDATA_DIR,
 			throwaway: true,
 			log
 		});

@@ -1,4 +1,10 @@
-import { redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import {
+	redirect,
+	type Handle,
+	type HandleFetch,
+	type HandleServerError,
+	type ServerInit
+} from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { randomUUID } from 'node:crypto';
 import {
@@ -10,6 +16,14 @@ import {
 } from '$lib/server/auth';
 import type { AccessContext } from '$lib/server/audit';
 import { config } from '$lib/server/config';
+import { describeError, isDatabaseUnavailable } from '$lib/server/db/errors';
+import { RETRY_AFTER_SECONDS, databaseUnavailable } from '$lib/server/http/api';
+import {
+	isCrossOriginChange,
+	isMalformedPath,
+	securityHeaderValues
+} from '$lib/server/http/headers';
+import { problem } from '$lib/server/http/problem';
 import { decideRoute } from '$lib/server/people/policy';
 import {
 	ORGANISATION_COOKIE,
@@ -35,40 +49,103 @@ export const init: ServerInit = async () => {
 	stopWorkers ??= startBackgroundWorkers();
 };
 
-/** Headers every response carries; the Content-Security-Policy comes from svelte.config.js. */
+/**
+ * Headers every response carries (the Content-Security-Policy of pages comes from
+ * svelte.config.js): HSTS over https, and `Cache-Control: no-store` on every answer to a
+ * signed-in person or one that sets or ends a session.
+ */
 const securityHeaders: Handle = async ({ event, resolve }) => {
-	const response = await resolve(event);
-	const headers = response.headers;
-	const set = (name: string, value: string) => {
-		if (!headers.has(name)) headers.set(name, value);
-	};
+	const cookieName = sessionCookieName(event.url);
+	const hadSession = event.cookies.get(cookieName) !== undefined;
+	let response = await resolve(event);
+	const { defaults, force } = securityHeaderValues({
+		https: event.url.protocol === 'https:',
+		authenticated:
+			hadSession ||
+			event.locals.actor != null ||
+			response.headers.getSetCookie().some((c) => c.startsWith(`${cookieName}=`))
+	});
 	try {
-		set('X-Content-Type-Options', 'nosniff');
-		set('Referrer-Policy', 'strict-origin-when-cross-origin');
-		set('X-Frame-Options', 'DENY');
-		set('Cross-Origin-Opener-Policy', 'same-origin');
-		set('Permissions-Policy', 'camera=(), microphone=(), geolocation=(), payment=()');
-		if (!headers.has('Content-Security-Policy')) {
-			// Non-page responses (JSON, files) get a CSP that forbids everything active.
-			set('Content-Security-Policy', "default-src 'none'; frame-ancestors 'none'");
-		}
+		applyHeaders(response.headers, defaults, force);
 	} catch {
 		// Some responses (redirects made by libraries) have immutable headers: copy them.
-		return withHeaders(response);
+		response = new Response(response.body, response);
+		applyHeaders(response.headers, defaults, force);
 	}
 	return response;
 };
 
-function withHeaders(response: Response): Response {
-	const copy = new Response(response.body, response);
-	copy.headers.set('X-Content-Type-Options', 'nosniff');
-	copy.headers.set('Referrer-Policy', 'strict-origin-when-cross-origin');
-	copy.headers.set('X-Frame-Options', 'DENY');
-	if (!copy.headers.has('Content-Security-Policy')) {
-		copy.headers.set('Content-Security-Policy', "default-src 'none'; frame-ancestors 'none'");
+function applyHeaders(
+	headers: Headers,
+	defaults: Record<string, string>,
+	force: Record<string, string>
+): void {
+	for (const [name, value] of Object.entries(defaults)) {
+		if (!headers.has(name)) headers.set(name, value);
 	}
-	return copy;
+	for (const [name, value] of Object.entries(force)) headers.set(name, value);
 }
+
+/** Requests whose answers were errors caused by a lost database (marked by handleError). */
+const lostDatabase = new WeakSet<App.Locals>();
+
+/**
+ * While PostgreSQL is away (a restart, say) every request that needed it answers 503 with
+ * Retry-After — problem+json for the API, the error page for people — instead of a 500; the
+ * pool reconnects by itself as soon as the database accepts connections again. Nothing was
+ * committed for such a request, so no acknowledged change is lost.
+ */
+const databaseOutage: Handle = async ({ event, resolve }) => {
+	let response: Response;
+	try {
+		response = await resolve(event);
+	} catch (error) {
+		if (!isDatabaseUnavailable(error)) throw error;
+		return outageAnswer(event.url, event.request);
+	}
+	if (!lostDatabase.has(event.locals)) return response;
+	const headers = new Headers(response.headers);
+	headers.set('Retry-After', String(RETRY_AFTER_SECONDS));
+	return new Response(response.body, { status: 503, headers });
+};
+
+function outageAnswer(url: URL, request: Request): Response {
+	const wantsHtml = (request.headers.get('accept') ?? '').includes('text/html');
+	if (url.pathname.startsWith('/api/') || !wantsHtml) return databaseUnavailable(url.pathname);
+	return new Response(
+		'<!doctype html><html lang="en"><head><meta charset="utf-8"><title>Back in a moment — Seamwell</title></head>' +
+			'<body><h1>Back in a moment</h1><p>Seamwell cannot reach its database right now. Nothing was saved half-way. ' +
+			'Please try again in a few seconds.</p></body></html>',
+		{
+			status: 503,
+			headers: {
+				'content-type': 'text/html; charset=utf-8',
+				'Retry-After': String(RETRY_AFTER_SECONDS)
+			}
+		}
+	);
+}
+
+/**
+ * Refuses, before anything else reads the request: a change (any method but GET, HEAD,
+ * OPTIONS) from another origin or with no Origin at all, whatever its content type (Auth.js's
+ * sign-out included); and an address whose percent-encoding does not decode.
+ */
+const requestShape: Handle = async ({ event, resolve }) => {
+	const api = event.url.pathname.startsWith('/api/');
+	if (isMalformedPath(event.url.pathname) && api) {
+		return problem('malformed-path', {
+			detail: 'The address holds a percent-encoding that does not decode.'
+		});
+	}
+	if (isCrossOriginChange(event.request, event.url.origin)) {
+		const detail =
+			'Changes must come from Seamwell itself: the Origin header is missing or foreign.';
+		if (api) return problem('cross-origin', { detail, instance: event.url.pathname });
+		return new Response(detail, { status: 403, headers: { 'content-type': 'text/plain' } });
+	}
+	return resolve(event);
+};
 
 /** Who is asking and from where, for the access log: anonymous until the session is read. */
 const accessContext: Handle = async ({ event, resolve }) => {
@@ -231,6 +308,8 @@ const recordUnloggedRefusals: Handle = async ({ event, resolve }) => {
 
 export const handle: Handle = sequence(
 	securityHeaders,
+	databaseOutage,
+	requestShape,
 	// Before anything reads a body: uploads may be 21 MB, every other request 1 MB.
 	limitRequestBody,
 	accessContext,
@@ -241,13 +320,36 @@ export const handle: Handle = sequence(
 	guardRoutes
 );
 
-/** Logs the error with an id and shows the person a plain message with that id — never a stack. */
+/**
+ * Logs the error with an id and what failed (a query by name, never its parameters) and shows
+ * the person a plain message with that id — never a stack.
+ */
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message: 'Not found' };
+	if (isDatabaseUnavailable(error)) {
+		lostDatabase.add(event.locals);
+		return {
+			message: 'Seamwell cannot reach its database right now. Please try again in a few seconds.'
+		};
+	}
 	const errorId = randomUUID();
-	console.error(`[error ${errorId}] ${event.request.method} ${event.url.pathname}`, error);
+	console.error(
+		`[error ${errorId}] ${event.request.method} ${event.route.id ?? event.url.pathname}: ${describeError(error)}`
+	);
 	return {
 		message: status >= 500 ? 'Something went wrong on our side.' : message,
 		errorId
 	};
+};
+
+/**
+ * Data a page loads through the JSON API on the server keeps the person's user agent, so the
+ * access-log rows it writes say which browser asked (SvelteKit forwards only the cookies).
+ */
+export const handleFetch: HandleFetch = async ({ event, request, fetch }) => {
+	const agent = event.request.headers.get('user-agent');
+	if (!agent || new URL(request.url).origin !== event.url.origin) return fetch(request);
+	const headers = new Headers(request.headers);
+	headers.set('user-agent', agent);
+	return fetch(new Request(request, { headers }));
 };

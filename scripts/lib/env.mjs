@@ -1,9 +1,9 @@
 // Configuration for the scripts: defaults, the git-ignored .env (created with generated
 // secrets on first start), and the URLs derived from ports. Real environment variables win.
 import { randomBytes } from 'node:crypto';
-import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { parseEnv } from 'node:util';
-import { resolve } from 'node:path';
+import { dirname, resolve } from 'node:path';
 
 export const root = resolve(import.meta.dirname, '..', '..');
 
@@ -39,10 +39,68 @@ export function ensureEnvFile(file = resolve(root, '.env')) {
 	return true;
 }
 
-/** Reads .env (if present) under the real environment, then fills defaults and derived URLs. */
-export function loadEnv({ file = resolve(root, '.env'), overrides = {} } = {}) {
+/** Where `npm start` records the ports and folders it runs with, for the other scripts. */
+export const STACK_FILE = resolve(root, '.data', 'stack.json');
+
+/** What `npm start` records: whatever says where its services listen and keep their data. */
+export const STACK_KEYS = [
+	'HOST',
+	'PORT',
+	'PGPORT',
+	'S3_PORT',
+	'MAIL_SMTP_PORT',
+	'MAIL_HTTP_PORT',
+	'PGDATA_DIR',
+	'DB_NAME'
+];
+
+/**
+ * Records the settings `npm start` runs with (ports given in the environment included), so that
+ * `npm run audit:verify` and `npm run demo:reset` reach the same services.
+ * @param {Record<string, string | undefined>} env
+ */
+export function recordStackSettings(env, file = STACK_FILE) {
+	/** @type {Record<string, string>} */
+	const settings = {};
+	for (const key of STACK_KEYS) if (env[key] !== undefined) settings[key] = String(env[key]);
+	mkdirSync(dirname(file), { recursive: true });
+	writeFileSync(file, JSON.stringify(settings, null, 2) + '\n');
+}
+
+/** @returns {Record<string, string>} */
+function readStackSettings(file = STACK_FILE) {
+	if (!existsSync(file)) return {};
+	try {
+		const parsed = JSON.parse(readFileSync(file, 'utf8'));
+		/** @type {Record<string, string>} */
+		const out = {};
+		for (const key of STACK_KEYS) if (typeof parsed[key] === 'string') out[key] = parsed[key];
+		return out;
+	} catch {
+		return {};
+	}
+}
+
+/**
+ * Reads .env (if present) under the real environment, then fills defaults and derived URLs.
+ * `stack: true` (the scripts that work on a running `npm start`) also reads the settings
+ * `npm start` recorded, between .env and the real environment.
+ */
+export function loadEnv({
+	file = resolve(root, '.env'),
+	overrides = {},
+	stack = false,
+	stackFile = STACK_FILE
+} = {}) {
 	const fromFile = existsSync(file) ? parseEnv(readFileSync(file, 'utf8')) : {};
-	const env = { ...defaults, ...fromFile, ...pickDefined(process.env), ...overrides };
+	const fromStack = stack ? readStackSettings(stackFile) : {};
+	const env = {
+		...defaults,
+		...fromFile,
+		...fromStack,
+		...pickDefined(process.env),
+		...overrides
+	};
 	return withDerived(env);
 }
 

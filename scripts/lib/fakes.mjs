@@ -4,14 +4,17 @@ import { spawn } from 'node:child_process';
 import { join } from 'node:path';
 import { root } from './env.mjs';
 
-export async function startFakes(env, { s3Dir, mailStore, log = console.log } = {}) {
-	const children = [];
-	const s3 = spawn(process.execPath, [join(root, 'fakes', 's3.mjs')], {
+/** Starts the S3 fake as a child process (not waiting for it). */
+export function spawnS3Fake(env, { s3Dir }) {
+	return spawn(process.execPath, [join(root, 'fakes', 's3.mjs')], {
 		env: { ...env, S3_PORT: env.S3_PORT, S3_DIR: s3Dir, S3_BUCKET: env.S3_BUCKET },
 		stdio: ['ignore', 'inherit', 'inherit']
 	});
-	children.push(s3);
-	const mail = spawn(process.execPath, [join(root, 'fakes', 'mail.mjs')], {
+}
+
+/** Starts the mail fake as a child process (not waiting for it). */
+export function spawnMailFake(env, { mailStore } = {}) {
+	return spawn(process.execPath, [join(root, 'fakes', 'mail.mjs')], {
 		env: {
 			...env,
 			MAIL_SMTP_PORT: env.MAIL_SMTP_PORT,
@@ -20,11 +23,17 @@ export async function startFakes(env, { s3Dir, mailStore, log = console.log } = 
 		},
 		stdio: ['ignore', 'inherit', 'inherit']
 	});
-	children.push(mail);
-	await Promise.all([
-		waitForHttp(`${env.S3_ENDPOINT}/`, 's3 fake', s3),
-		waitForHttp(`${env.MAIL_INBOX_URL}/healthz`, 'mail fake', mail)
-	]);
+}
+
+export const s3Ready = (env, child) => waitForHttp(`${env.S3_ENDPOINT}/`, 's3 fake', child);
+export const mailReady = (env, child) =>
+	waitForHttp(`${env.MAIL_INBOX_URL}/healthz`, 'mail fake', child);
+
+export async function startFakes(env, { s3Dir, mailStore, log = console.log } = {}) {
+	const s3 = spawnS3Fake(env, { s3Dir });
+	const mail = spawnMailFake(env, { mailStore });
+	const children = [s3, mail];
+	await Promise.all([s3Ready(env, s3), mailReady(env, mail)]);
 	log(`S3 fake   ${env.S3_ENDPOINT} (bucket ${env.S3_BUCKET})`);
 	log(`Mail fake smtp://127.0.0.1:${env.MAIL_SMTP_PORT}, inbox ${env.MAIL_INBOX_URL}`);
 	return {

@@ -115,12 +115,20 @@ export function startPostgres({
 	}
 	return {
 		stop() {
-			run(join(bin, 'pg_ctl'), ['stop', '-m', 'fast', '-w', '-D', dataDir], {
-				asPostgres: true,
-				allowFail: true
-			});
+			stopPostgres({ bin, dataDir });
 		}
 	};
+}
+
+/**
+ * Stops the cluster the fast way (open connections are ended, as in a real restart); waits
+ * until it is down.
+ */
+export function stopPostgres({ bin, dataDir }) {
+	run(join(bin, 'pg_ctl'), ['stop', '-m', 'fast', '-w', '-D', dataDir], {
+		asPostgres: true,
+		allowFail: true
+	});
 }
 
 function initCluster({ bin, dataDir, superPassword, log }) {

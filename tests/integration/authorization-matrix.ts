@@ -102,6 +102,7 @@ export const MATRIX: Row[] = [
 	{ route: '/(app)/physio', call: 'GET', expect: only(PHYSIOS, 200) },
 	{ route: '/(app)/client', call: 'GET', expect: only(CLIENTS, 200) },
 	{ route: '/(app)/admin', call: 'GET', expect: only(ADMINS, 200) },
+	{ route: '/(app)/admin', call: 'POST ?/resend', expect: only(ADMINS, 400) },
 	{ route: '/(app)/admin/members', call: 'GET', expect: only(ADMINS, 200) },
 	{ route: '/(app)/admin/members', call: 'POST ?/invite', expect: only(ADMINS, 400) },
 	{ route: '/(app)/admin/members', call: 'POST ?/revoke', expect: only(ADMINS, 400) },

@@ -51,6 +51,33 @@ describe('asking for a sign-in link', () => {
 		expect(row).toMatchObject({ action: 'signin.requested', outcome: 'success' });
 	});
 
+	it('a new link revokes her earlier unused ones; an unsent earlier link mail is not sent', async () => {
+		const since = new Date(Date.now() - 1000);
+		const org = await makeOrganisation('studio');
+		const person = await makePerson([{ organisationId: org, role: 'instructor' }]);
+		const ip = uniqueIp();
+		for (let i = 0; i < 3; i++) {
+			expect(await requestSignInLink(requestFrom(ip), person.email, '/start')).toBe('sent');
+		}
+		const mails = (await mailsTo(person.email, since)).sort(
+			(a, b) => a.createdAt.getTime() - b.createdAt.getTime()
+		);
+		expect(mails).toHaveLength(3);
+		const tokenOf = (text: string) =>
+			new URL(text.match(/https?:\/\/\S+\/signin\/confirm\?\S+/)![0]).searchParams.get('token')!;
+		const states = await Promise.all(
+			mails.map((m) => inspectSignInLink(person.email, tokenOf(m.text)))
+		);
+		expect(states).toEqual(['invalid', 'invalid', 'valid']);
+		const tokens = await db()
+			.select()
+			.from(verificationTokens)
+			.where(eq(verificationTokens.identifier, person.email));
+		expect(tokens).toHaveLength(1);
+		// No worker runs in these tests, so the earlier mails were still waiting: not to be sent.
+		expect(mails.map((m) => m.state)).toEqual(['superseded', 'superseded', 'pending']);
+	});
+
 	it('an unknown or deactivated address gets no mail, no token, the same answer, logged as refused', async () => {
 		const since = new Date(Date.now() - 1000);
 		const unknown = `nobody-${Date.now()}@test.example`;

@@ -5,7 +5,7 @@ import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { config } from './config';
-import { db } from './db';
+import { db, type Executor } from './db';
 import { accounts, sessions, users, verificationTokens } from './db/schema';
 import { queueMail } from './mail/outbox';
 import { consumeSignInAllowance } from './people/rate-limit';
@@ -14,6 +14,8 @@ import {
 	SESSION_TOUCH_SECONDS,
 	SIGNIN_LINK_SECONDS,
 	recordSignInEvent,
+	replaceSignInToken,
+	supersedeUnsentSignInMail,
 	sessionEnd,
 	signInEligibility
 } from './people/sessions';
@@ -26,20 +28,35 @@ export const AUTH_BASE = '/auth';
 export const CALLBACK_PATH = `${AUTH_BASE}/callback/nodemailer`;
 export const SIGNOUT_PATH = `${AUTH_BASE}/signout`;
 
-/** Auth.js's session cookie name: the __Secure- form when Seamwell is served over https. */
+/**
+ * Auth.js's session cookie name. Over https it carries the `__Host-` prefix (ASVS 3.3.3): the
+ * browser then accepts it only if Secure, for path `/`, and without a Domain — so no other
+ * host, a sibling subdomain included, can set or shadow it.
+ */
 export function sessionCookieName(url: URL): string {
-	return url.protocol === 'https:' ? '__Secure-authjs.session-token' : 'authjs.session-token';
+	return url.protocol === 'https:' ? '__Host-authjs.session-token' : 'authjs.session-token';
 }
 
 /** Where both known and unknown addresses are sent after asking for a link. */
 const VERIFY_REQUEST_PATH = `${AUTH_BASE}/verify-request?provider=nodemailer&type=email`;
 
-/** The mail links to Seamwell's own confirmation page, carrying the same query as Auth.js's link. */
+/**
+ * The mail links to Seamwell's own confirmation page, carrying the same query as Auth.js's link.
+ * A new link ends the person's earlier unused ones: the adapter below deletes their tokens, and
+ * a link mail still waiting in the outbox is not sent (`superseded`).
+ */
 async function queueSignInLink(params: { identifier: string; url: string }): Promise<void> {
 	const authLink = new URL(params.url);
 	const link = `${authLink.origin}/signin/confirm?${authLink.searchParams}`;
-	await queueMail(db(), {
-		to: params.identifier,
+	await db().transaction(async (tx) => {
+		await supersedeUnsentSignInMail(tx, params.identifier);
+		await queueSignInMail(tx, params.identifier, link);
+	});
+}
+
+async function queueSignInMail(tx: Executor, to: string, link: string): Promise<void> {
+	await queueMail(tx, {
+		to,
 		kind: 'signin.link',
 		subject: 'Your Seamwell sign-in link',
 		text: [
@@ -65,6 +82,11 @@ function seamwellAdapter(): Adapter {
 	});
 	return {
 		...base,
+		// Only the newest sign-in link works: storing a token deletes her earlier ones.
+		async createVerificationToken(token) {
+			await replaceSignInToken(token);
+			return token;
+		},
 		async createUser(): Promise<AdapterUser> {
 			throw new Error('Seamwell adds people through invitations, never by signing in.');
 		},
@@ -100,6 +122,16 @@ function authConfig(): SvelteKitAuthConfig {
 		basePath: AUTH_BASE,
 		skipCSRFCheck,
 		useSecureCookies: new URL(c.ORIGIN).protocol === 'https:',
+		// Over https the session cookie takes the __Host- prefix (Auth.js's default is __Secure-).
+		cookies:
+			new URL(c.ORIGIN).protocol === 'https:'
+				? {
+						sessionToken: {
+							name: sessionCookieName(new URL(c.ORIGIN)),
+							options: { httpOnly: true, sameSite: 'lax', path: '/', secure: true }
+						}
+					}
+				: undefined,
 		session: {
 			strategy: 'database',
 			maxAge: SESSION_IDLE_SECONDS,

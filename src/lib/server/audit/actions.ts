@@ -34,6 +34,7 @@ export const AUDIT_ACTIONS = [
 	'clearance.read',
 	'audit.read',
 	'audit.exported',
+	'mail.resent',
 	'access.denied'
 ] as const;
 

@@ -1,4 +1,5 @@
 import { sql } from 'drizzle-orm';
+import { briefError } from '../db/errors';
 import type { Database } from '../db';
 import { chainColumns, GENESIS_HASH, linkHash, toChainRow } from './chain';
 
@@ -134,7 +135,7 @@ export function startSealer(
 				if (failing) log('[audit] sealer: database reachable again');
 				failing = false;
 			} catch (error) {
-				if (!failing) log(`[audit] sealer: ${error instanceof Error ? error.message : error}`);
+				if (!failing) log(`[audit] sealer: ${briefError(error)}`);
 				failing = true;
 			}
 		})();

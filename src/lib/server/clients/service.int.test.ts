@@ -216,6 +216,52 @@ describe('client records between two studios', () => {
 		expect(second.items.map((c) => c.name)).toEqual([`Pager ${tag} C`]);
 		expect(second.nextCursor).toBeNull();
 	});
+
+	it('a forged cursor is a 422 on /cursor, never a database error', async () => {
+		const id = randomUUID();
+		const forge = (value: unknown) => Buffer.from(JSON.stringify(value)).toString('base64url');
+		const forged = [
+			// A text key where the sort wants a moment.
+			{ sort: 'lastScreenedAt' as const, cursor: forge({ k: 'zzz', id }) },
+			{ sort: 'lastScreenedAt' as const, cursor: forge({ k: '2026-02-31T00:00:00.000Z', id }) },
+			{ sort: 'lastScreenedAt' as const, cursor: forge({ k: 7, id }) },
+			// PostgreSQL cannot take a NUL in text.
+			{ sort: 'name' as const, cursor: forge({ k: 'A\u0000B', id }) },
+			{ sort: 'name' as const, cursor: forge({ k: 'A', id: 'not-a-uuid' }) },
+			{ sort: 'name' as const, cursor: forge({ k: 'A', id, extra: 1 }) },
+			// Not base64url, not JSON, not UTF-8.
+			{ sort: 'name' as const, cursor: '%%%' },
+			{ sort: 'name' as const, cursor: Buffer.from('{"k":').toString('base64url') },
+			{ sort: 'name' as const, cursor: Buffer.from([0xff, 0xfe, 0x7b]).toString('base64url') }
+		];
+		for (const { sort, cursor } of forged) {
+			const problem = await expectProblem(
+				listClients(tess, { sort, limit: 5, cursor }),
+				'validation-failed'
+			);
+			expect(problem.init.errors).toEqual([{ pointer: '/cursor', message: 'unknown cursor' }]);
+		}
+	});
+
+	it('pages by when she was last screened with the cursor it hands out', async () => {
+		const tag = randomUUID().slice(0, 6);
+		for (const n of ['A', 'B']) await newClient(tess, `Dated ${tag} ${n}`);
+		const first = await listClients(tess, {
+			search: `Dated ${tag}`,
+			sort: 'lastScreenedAt',
+			limit: 1
+		});
+		const second = await listClients(tess, {
+			search: `Dated ${tag}`,
+			sort: 'lastScreenedAt',
+			limit: 1,
+			cursor: first.nextCursor!
+		});
+		expect([...first.items, ...second.items].map((c) => c.name).sort()).toEqual([
+			`Dated ${tag} A`,
+			`Dated ${tag} B`
+		]);
+	});
 });
 
 describe('screenings', () => {

@@ -23,7 +23,7 @@ import type { Caller } from '../context';
 import { db, type Executor } from '../db';
 import { clients, screenings, users } from '../db/schema';
 import { notFound, ProblemError, validationProblem } from '../http/problem';
-import { decodeCursor, toPage, type Page } from '../http/schemas';
+import { cursorKey, decodeCursor, toPage, type Page } from '../http/schemas';
 import { queueMail } from '../mail/outbox';
 import { assertSelf } from '../people/policy';
 import {
@@ -192,7 +192,11 @@ async function refuseList(caller: Caller, action: AuditAction): Promise<never> {
 	});
 }
 
-const listCursor = z.object({ k: z.string().nullable(), id: z.uuid() });
+/** The list's cursor: the last row's sort key (a name, or when she was last screened) and id. */
+const listCursors = {
+	name: z.strictObject({ k: cursorKey.text, id: cursorKey.id }),
+	lastScreenedAt: z.strictObject({ k: cursorKey.moment.nullable(), id: cursorKey.id })
+};
 
 function escapeLike(term: string): string {
 	return term.replace(/[\\%_]/g, (c) => `\\${c}`);
@@ -251,7 +255,8 @@ export async function listClients(
 ): Promise<Page<ClientSummary>> {
 	if (!mayListClients(caller.actor)) return refuseList(caller, 'client.listed');
 	const studios = instructorStudioIds(caller.actor);
-	const after = decodeCursor(query.cursor, listCursor);
+	const byName = query.sort === 'name';
+	const after = decodeCursor(query.cursor, listCursors[byName ? 'name' : 'lastScreenedAt']);
 
 	const where: SQL[] = [inStudios(studios)];
 	if (query.search) where.push(ilike(clients.name, `%${escapeLike(query.search)}%`));
@@ -259,7 +264,6 @@ export async function listClients(
 
 	// Oldest screening first (never screened before all), so who is due comes to the top.
 	const lastKey = sql`coalesce(${clients.lastScreenedAt}, '-infinity'::timestamptz)`;
-	const byName = query.sort === 'name';
 	if (after) {
 		where.push(
 			byName

@@ -21,12 +21,24 @@ export function db(): Database {
 
 export function createDatabase(url: string, options: pg.PoolConfig = {}): Database {
 	const pool = new pg.Pool({ connectionString: url, max: 10, ...options });
-	// An idle client whose connection drops (server restart, network) emits 'error' on the
-	// pool; without a listener Node would crash the process. The pool replaces the client.
-	pool.on('error', (error) => {
-		console.error(`[db] idle connection lost: ${error.message}`);
+	// A client whose connection drops (server restart, network) emits 'error'; without a
+	// listener Node crashes the whole process. The pool listens only while a client is idle, so
+	// every client gets its own listener the moment it connects, checked out or not. The query
+	// in progress fails on its own (the request answers 503) and the pool drops the client.
+	pool.on('connect', (client) => {
+		client.on('error', (error) => logConnectionLoss(error));
 	});
+	pool.on('error', (error) => logConnectionLoss(error));
 	return drizzle(pool, { schema }) as Database;
+}
+
+let lastLossLoggedAt = 0;
+
+/** One line per outage, not one per connection (ten connections drop at once). */
+function logConnectionLoss(error: Error): void {
+	if (Date.now() - lastLossLoggedAt < 5_000) return;
+	lastLossLoggedAt = Date.now();
+	console.error(`[db] connection lost: ${error.message}`);
 }
 
 export { schema };

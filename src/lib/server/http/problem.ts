@@ -6,6 +6,7 @@ import type { z } from 'zod';
 
 export const PROBLEM_TYPES = {
 	'malformed-json': { status: 400, title: 'The request body is not valid JSON' },
+	'malformed-path': { status: 400, title: 'The address is not valid' },
 	'validation-failed': { status: 422, title: 'The request has invalid fields' },
 	unauthenticated: { status: 401, title: 'Sign-in required' },
 	forbidden: { status: 403, title: 'Not allowed' },
@@ -20,6 +21,7 @@ export const PROBLEM_TYPES = {
 	'invalid-transition': { status: 409, title: 'Invalid state transition' },
 	'duplicate-referral': { status: 409, title: 'An open referral already exists' },
 	'storage-unavailable': { status: 503, title: 'Storage unavailable' },
+	'database-unavailable': { status: 503, title: 'Database unavailable' },
 	'internal-error': { status: 500, title: 'Internal error' }
 } as const;
 

@@ -35,7 +35,34 @@ export function encodeCursor(value: unknown): string {
 	return Buffer.from(JSON.stringify(value)).toString('base64url');
 }
 
-/** Reads a cursor made by `encodeCursor`; a cursor that is not ours is a 422 on `/cursor`. */
+/** What cursor keys may hold; each list's cursor schema says which one its sort key is. */
+export const cursorKey = {
+	/** A text sort key (a name): no NUL, bounded. */
+	text: z.string().max(500),
+	/** A moment as `toISOString()` wrote it: exactly that form, and a real date. */
+	moment: z.iso
+		.datetime()
+		.refine((s) => !Number.isNaN(Date.parse(s)) && new Date(s).toISOString() === s),
+	id: z.uuid()
+};
+
+const BASE64URL = /^[A-Za-z0-9_-]+$/;
+
+function containsNul(value: unknown): boolean {
+	if (typeof value === 'string') return value.includes('\u0000');
+	if (Array.isArray(value)) return value.some(containsNul);
+	if (value && typeof value === 'object') {
+		return Object.entries(value).some(([k, v]) => k.includes('\u0000') || containsNul(v));
+	}
+	return false;
+}
+
+/**
+ * Reads a cursor made by `encodeCursor`, checked against the list's schema — for a sorted
+ * list, the schema of the sort in use, so a key of the wrong type never reaches SQL. Anything
+ * else (not base64url, not JSON, a NUL anywhere, a key of the wrong type) is a 422 on
+ * `/cursor`, never a database error.
+ */
 export function decodeCursor<T extends z.ZodType>(
 	cursor: string | undefined,
 	schema: T
@@ -43,12 +70,14 @@ export function decodeCursor<T extends z.ZodType>(
 	if (!cursor) return null;
 	let value: unknown;
 	try {
-		value = JSON.parse(Buffer.from(cursor, 'base64url').toString('utf8'));
+		if (!BASE64URL.test(cursor)) throw new Error('not base64url');
+		const bytes = Buffer.from(cursor, 'base64url');
+		value = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(bytes));
 	} catch {
 		value = undefined;
 	}
-	const parsed = schema.safeParse(value);
-	if (!parsed.success) {
+	const parsed = containsNul(value) ? null : schema.safeParse(value);
+	if (!parsed?.success) {
 		throw new ProblemError('validation-failed', {
 			detail: 'The cursor is not one this list handed out.',
 			errors: [{ pointer: '/cursor', message: 'unknown cursor' }]

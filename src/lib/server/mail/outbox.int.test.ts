@@ -6,7 +6,13 @@ import { createScratchDatabase, type ScratchDatabase } from '../audit/testing/sc
 import { createDatabase, type Database } from '../db';
 import { queueMail, queueNotification } from './outbox';
 import { createSmtpSender, type SendMail } from './transport';
-import { listFailedMail, startOutboxWorker, type OutboxWorker } from './worker';
+import {
+	RETRY_WINDOW_MS,
+	backoffMs,
+	listFailedMail,
+	startOutboxWorker,
+	type OutboxWorker
+} from './worker';
 
 // The outbox worker against the real PostgreSQL and a mail fake of the test's own (so it can
 // be stopped and restarted), in a database of its own (so no other test's mail is touched).
@@ -185,20 +191,63 @@ describe('the mail outbox', () => {
 		expect((await states(s.app)).every((r) => r.attempts === 1)).toBe(true);
 	});
 
-	it('a message that keeps failing ends failed, with its error, and is listed', async () => {
+	it('a message that keeps failing past its retry window ends failed, with its error, and is listed', async () => {
 		const { s, smtpPort } = await setUp();
 		await fake!.close(); // nothing listens: every attempt is refused
 		const to = uniqueAddress('never');
-		const id = await queueMail(s.app, mail(to));
-		worker(s.app, sender(smtpPort), { pollMs: 100, backoffBaseMs: 50, maxAttempts: 3 });
+		const id = await queueMail(s.app, { ...mail(to), kind: 'invitation' });
+		worker(s.app, sender(smtpPort), { pollMs: 100, backoffBaseMs: 50, retryWindowMs: 400 });
 		const [row] = await until(
 			() => states(s.app),
 			(rows) => rows[0]?.state === 'failed'
 		);
-		expect(row).toMatchObject({ state: 'failed', attempts: 3 });
+		expect(row!.attempts).toBeGreaterThanOrEqual(2);
 		expect(row!.last_error).toMatch(/ECONNREFUSED|connect/i);
 		const failed = await listFailedMail(s.app);
-		expect(failed).toEqual([expect.objectContaining({ id, to, kind: 'signin.link', attempts: 3 })]);
+		expect(failed).toEqual([expect.objectContaining({ id, to, kind: 'invitation' })]);
+	});
+
+	it('keeps retrying within the window: more than the 8 tries that used to be the end', async () => {
+		const { s, smtpPort } = await setUp();
+		await fake!.close();
+		const to = uniqueAddress('patient');
+		await queueMail(s.app, { ...mail(to), kind: 'invitation' });
+		// Default window (48 h); tiny waits so that many attempts happen quickly.
+		worker(s.app, sender(smtpPort), { pollMs: 50, backoffBaseMs: 10, backoffCapMs: 20 });
+		const [row] = await until(
+			() => states(s.app),
+			(rows) => (rows[0]?.attempts ?? 0) >= 12,
+			20_000
+		);
+		expect(row!.state).toBe('pending');
+	});
+
+	it('backs off exponentially and caps the wait', () => {
+		// 5 s doubling, at most 15 min; 48 h of tries is about 200 attempts, not 8.
+		expect([1, 2, 3, 8, 9, 20].map((n) => backoffMs(n))).toEqual([
+			5_000, 10_000, 20_000, 640_000, 900_000, 900_000
+		]);
+		expect(RETRY_WINDOW_MS).toBeGreaterThanOrEqual(48 * 3600_000);
+	});
+
+	it('a sign-in link still unsent after its 10 minutes is dropped (expired), not sent late', async () => {
+		const { s, smtpPort, httpPort } = await setUp();
+		const late = uniqueAddress('late');
+		const timely = uniqueAddress('timely');
+		await queueMail(s.app, mail(late));
+		await queueMail(s.app, { ...mail(timely), kind: 'invitation' });
+		// Both were queued 11 minutes ago, while the mail server was down.
+		await s.app.execute(sql`update outbox set created_at = now() - interval '11 minutes'`);
+		const w = worker(s.app, sender(smtpPort), { pollMs: 100 });
+		await w.ready;
+		await until(
+			() => messagesTo(httpPort, timely),
+			(m) => m.length === 1
+		);
+		const rows = await states(s.app);
+		expect(rows.find((r) => r.to === late)).toMatchObject({ state: 'expired', attempts: 0 });
+		expect(rows.find((r) => r.to === late)!.last_error).toMatch(/not sent late/);
+		expect(await messagesTo(httpPort, late)).toHaveLength(0);
 	});
 
 	it('a notification says only that there is something to see, with a link', async () => {

@@ -1,7 +1,9 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import pg from 'pg';
 import type { Database, Executor } from '../db';
+import { briefError } from '../db/errors';
 import { outbox } from '../db/schema';
+import { SIGNIN_LINK_SECONDS } from '../people/sessions';
 import { deliver, type SendMail } from './transport';
 
 // The outbox worker: sends what queueMail wrote, through nodemailer.
@@ -15,8 +17,13 @@ import { deliver, type SendMail } from './transport';
 //   lease puts the row in the future. Sending happens outside any transaction; the result is
 //   written afterwards (sent, or retry later, or failed).
 // - Retries: after attempt n fails the row waits BACKOFF_BASE_MS × 2^(n−1) (5 s, 10 s, 20 s …,
-//   at most 15 min); after MAX_ATTEMPTS (8, about 10½ minutes of trying) it ends `failed`
-//   with last_error, and listFailedMail shows it.
+//   at most 15 min), for RETRY_WINDOW_MS (48 h) from `retry_from` (when it was queued, or sent
+//   again by an admin) — a mail server down over a weekend loses nothing. An attempt that fails
+//   after the window ends the row `failed` with last_error; admins see it on their dashboard
+//   and may send it again.
+// - Sign-in links are worth sending only while they work: one still unsent after its lifetime
+//   (10 min) ends `expired` instead of arriving late; one replaced by a newer link before it
+//   was sent ends `superseded` (auth.ts).
 // - Sent once: a mail is sent again only if the process dies (or loses the database for the
 //   whole lease) after the SMTP server accepted it and before `sent` was recorded. SMTP has no
 //   way to make that exactly-once, so the worker is at-least-once in that one case and
@@ -25,15 +32,22 @@ import { deliver, type SendMail } from './transport';
 // - Never crashes the process: database and SMTP errors are logged (once per outage) and
 //   the next wake-up tries again.
 
-export const MAX_ATTEMPTS = 8;
+export const RETRY_WINDOW_MS = 48 * 60 * 60_000;
 export const BACKOFF_BASE_MS = 5_000;
 export const BACKOFF_CAP_MS = 15 * 60_000;
 export const LEASE_MS = 2 * 60_000;
 export const OUTBOX_CHANNEL = 'seamwell_outbox';
 
+/** The kind of the sign-in link mail, and how long its link works. */
+export const SIGNIN_LINK_KIND = 'signin.link';
+export const SIGNIN_LINK_MAX_AGE_MS = SIGNIN_LINK_SECONDS * 1000;
+
 export interface OutboxSettings {
 	send: SendMail;
-	maxAttempts: number;
+	/** How long failed attempts are retried, from the row's `retry_from`. */
+	retryWindowMs: number;
+	/** A sign-in link mail older than this is dropped (`expired`), not sent. */
+	signInLinkMaxAgeMs: number;
 	backoffBaseMs: number;
 	backoffCapMs: number;
 	leaseMs: number;
@@ -42,7 +56,8 @@ export interface OutboxSettings {
 
 const defaults: OutboxSettings = {
 	send: deliver,
-	maxAttempts: MAX_ATTEMPTS,
+	retryWindowMs: RETRY_WINDOW_MS,
+	signInLinkMaxAgeMs: SIGNIN_LINK_MAX_AGE_MS,
 	backoffBaseMs: BACKOFF_BASE_MS,
 	backoffCapMs: BACKOFF_CAP_MS,
 	leaseMs: LEASE_MS,
@@ -66,14 +81,16 @@ type ClaimedMail = {
 /** Leases up to `batchSize` due mails to this worker (one short transaction). */
 export async function claimDue(
 	database: Database,
-	settings: Pick<OutboxSettings, 'batchSize' | 'leaseMs' | 'maxAttempts'>
+	settings: Pick<OutboxSettings, 'batchSize' | 'leaseMs' | 'signInLinkMaxAgeMs'>
 ): Promise<ClaimedMail[]> {
 	const result = await database.execute<ClaimedMail>(sql`
 		update outbox set attempts = attempts + 1,
 			next_attempt_at = now() + make_interval(secs => ${settings.leaseMs / 1000})
 		where id in (
 			select id from outbox
-			where state = 'pending' and next_attempt_at <= now() and attempts < ${settings.maxAttempts}
+			where state = 'pending' and next_attempt_at <= now()
+				and not (kind = ${SIGNIN_LINK_KIND}
+					and created_at <= now() - make_interval(secs => ${settings.signInLinkMaxAgeMs / 1000}))
 			order by next_attempt_at, created_at
 			limit ${settings.batchSize}
 			for update skip locked)
@@ -82,14 +99,16 @@ export async function claimDue(
 }
 
 /**
- * Rows whose last attempt was claimed but never reported (the worker died) and that have no
- * attempt left end failed, rather than pending for ever.
+ * Sign-in links still unsent after their lifetime end `expired`: the link would no longer
+ * work, so the mail is dropped rather than sent late.
  */
-async function failAbandoned(database: Database, maxAttempts: number): Promise<void> {
-	await database.execute(sql`
-		update outbox set state = 'failed',
-			last_error = concat_ws(' / ', last_error, 'no outcome recorded for the last attempt')
-		where state = 'pending' and attempts >= ${maxAttempts} and next_attempt_at <= now()`);
+async function expireStaleSignInLinks(database: Database, maxAgeMs: number): Promise<number> {
+	const result = await database.execute(sql`
+		update outbox set state = 'expired',
+			last_error = concat_ws(' / ', last_error, 'not delivered within the link''s 10 minutes: dropped, not sent late')
+		where state = 'pending' and kind = ${SIGNIN_LINK_KIND}
+			and created_at <= now() - make_interval(secs => ${maxAgeMs / 1000})`);
+	return result.rowCount ?? 0;
 }
 
 async function withRetries<T>(work: () => Promise<T>, tries = 5, delayMs = 1000): Promise<T> {
@@ -125,22 +144,18 @@ async function sendClaimed(
 		});
 	} catch (error) {
 		const message = errorText(error);
-		if (mail.attempts >= settings.maxAttempts) {
-			await withRetries(() =>
-				database.execute(
-					sql`update outbox set state = 'failed', last_error = ${message} where ${ours}`
-				)
-			);
-			return 'failed';
-		}
 		const wait = backoffMs(mail.attempts, settings.backoffBaseMs, settings.backoffCapMs);
-		await withRetries(() =>
-			database.execute(sql`
+		// Past the retry window this failure is the last; else wait and try again.
+		const result = await withRetries(() =>
+			database.execute<{ state: string }>(sql`
 				update outbox set last_error = ${message},
+					state = case when retry_from + make_interval(secs => ${settings.retryWindowMs / 1000}) <= now()
+						then 'failed'::outbox_state else 'pending'::outbox_state end,
 					next_attempt_at = now() + make_interval(secs => ${wait / 1000})
-				where ${ours}`)
+				where ${ours}
+				returning state::text`)
 		);
-		return 'retry';
+		return result.rows[0]?.state === 'failed' ? 'failed' : 'retry';
 	}
 	// Accepted by the SMTP server: record it, insisting, since a lost update means a resend.
 	await withRetries(() =>
@@ -155,6 +170,7 @@ export interface ProcessResult {
 	sent: number;
 	retry: number;
 	failed: number;
+	expired: number;
 }
 
 /** Sends every mail due now, batch after batch, and returns what happened. */
@@ -163,8 +179,8 @@ export async function processDue(
 	options: Partial<OutboxSettings> = {}
 ): Promise<ProcessResult> {
 	const settings = { ...defaults, ...options };
-	const result: ProcessResult = { sent: 0, retry: 0, failed: 0 };
-	await failAbandoned(database, settings.maxAttempts);
+	const result: ProcessResult = { sent: 0, retry: 0, failed: 0, expired: 0 };
+	result.expired = await expireStaleSignInLinks(database, settings.signInLinkMaxAgeMs);
 	for (;;) {
 		const claimed = await claimDue(database, settings);
 		const outcomes = await Promise.allSettled(
@@ -179,10 +195,10 @@ export async function processDue(
 }
 
 /** How long until the next pending mail is due (ms), or null when none is pending. */
-async function nextDueInMs(database: Database, maxAttempts: number): Promise<number | null> {
+async function nextDueInMs(database: Database): Promise<number | null> {
 	const result = await database.execute<{ wait: number | null }>(sql`
 		select (extract(epoch from min(next_attempt_at) - now()) * 1000)::float8 as wait
-		from outbox where state = 'pending' and attempts < ${maxAttempts}`);
+		from outbox where state = 'pending'`);
 	const wait = result.rows[0]?.wait;
 	return wait === null || wait === undefined ? null : Math.max(0, Number(wait));
 }
@@ -231,13 +247,22 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 				again = false;
 				try {
 					const result = await processDue(database, settings);
-					if (result.failed > 0) log(`[mail] ${result.failed} mail(s) gave up and are failed`);
-					const next = await nextDueInMs(database, settings.maxAttempts);
+					if (result.failed > 0) {
+						log(
+							`[mail] ${result.failed} mail(s) failed for 48 hours and gave up (see the admin dashboard)`
+						);
+					}
+					if (result.expired > 0) {
+						log(
+							`[mail] ${result.expired} sign-in link(s) not delivered in time: dropped, not sent late`
+						);
+					}
+					const next = await nextDueInMs(database);
 					schedule(next ?? pollMs);
 					if (failing) log('[mail] outbox worker: database reachable again');
 					failing = false;
 				} catch (error) {
-					if (!failing) log(`[mail] outbox worker: ${errorText(error)}`);
+					if (!failing) log(`[mail] outbox worker: ${briefError(error)}`);
 					failing = true;
 					schedule(pollMs);
 				}
@@ -263,7 +288,7 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 			if (listener === client) listener = null;
 			client.end().catch(() => {});
 			if (stopped) return;
-			if (error && !failing) log(`[mail] outbox listener: ${errorText(error)}`);
+			if (error && !failing) log(`[mail] outbox listener: ${briefError(error)}`);
 			reconnect = setTimeout(() => void listen(), 2_000);
 		};
 		client.on('notification', () => wake());

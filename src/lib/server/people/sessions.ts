@@ -4,12 +4,13 @@ import type { Actor, MemberRole, Membership, OrganisationKind } from '../actor';
 import { recordAccess, type AccessContext } from '../audit';
 import type { AuditAction, AuditOutcome } from '../audit';
 import { config } from '../config';
-import { db } from '../db';
+import { db, type Executor } from '../db';
 import {
 	accessLog,
 	clients,
 	memberships,
 	organisations,
+	outbox,
 	sessions,
 	users,
 	verificationTokens
@@ -164,6 +165,40 @@ export async function signInEligibility(
 /** The hash Auth.js stores for a sign-in token: SHA-256 of token and secret, hex. */
 export function signInTokenHash(token: string): string {
 	return createHash('sha256').update(`${token}${config().AUTH_SECRET}`).digest('hex');
+}
+
+/**
+ * Stores a new sign-in token and ends the person's earlier unused links (one transaction):
+ * her other tokens are deleted, so only the newest link works. Auth.js calls it through the
+ * adapter in auth.ts, with the token already hashed.
+ */
+export async function replaceSignInToken(token: {
+	identifier: string;
+	token: string;
+	expires: Date;
+}): Promise<void> {
+	const address = token.identifier.toLowerCase();
+	await db().transaction(async (tx) => {
+		await tx.delete(verificationTokens).where(eq(verificationTokens.identifier, address));
+		await tx.insert(verificationTokens).values({ ...token, identifier: address });
+	});
+}
+
+/**
+ * Link mails still waiting in the outbox for this address are not sent once a newer link is
+ * queued (`superseded`): their tokens no longer work.
+ */
+export async function supersedeUnsentSignInMail(tx: Executor, email: string): Promise<void> {
+	await tx
+		.update(outbox)
+		.set({ state: 'superseded', lastError: 'replaced by a newer sign-in link before it was sent' })
+		.where(
+			and(
+				eq(outbox.to, email.toLowerCase()),
+				eq(outbox.kind, 'signin.link'),
+				eq(outbox.state, 'pending')
+			)
+		);
 }
 
 /** The part of the token hash the access log keeps, so a reused link can be recognised. */

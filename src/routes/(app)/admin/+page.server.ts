@@ -1,9 +1,37 @@
+import { fail } from '@sveltejs/kit';
+import { z } from 'zod';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
+import { listFailedMailFor, resendFailedMail } from '$lib/server/mail/service';
+import { formFailure } from '$lib/server/people/forms';
 import { summariseArea } from '$lib/server/people/service';
-import type { PageServerLoad } from './$types';
+import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	return { summary: await forPage(summariseArea(caller, 'admin')) };
+	const [summary, failedMail] = await Promise.all([
+		forPage(summariseArea(caller, 'admin')),
+		forPage(listFailedMailFor(caller))
+	]);
+	return { summary, failedMail };
+};
+
+const resendForm = z.object({ mailId: z.uuid('Unknown mail.') });
+
+export const actions: Actions = {
+	// Admins only (the service asserts it); recorded in the access log as mail.resent.
+	resend: async ({ locals, url, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const values = { mailId: String((await request.formData()).get('mailId') ?? '').slice(0, 100) };
+		const parsed = resendForm.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { values, errors: { form: 'Choose a mail to send again.' } });
+		}
+		try {
+			await resendFailedMail(caller, parsed.data.mailId);
+		} catch (e) {
+			return formFailure(e, values);
+		}
+		return { resent: parsed.data.mailId };
+	}
 };

@@ -5,6 +5,8 @@ import type { PageServerLoad } from './$types';
 // Each problem type's URI (`type` in an RFC 9457 answer) is a page that explains it.
 const EXPLANATIONS: Record<ProblemSlug, string> = {
 	'malformed-json': 'The body could not be read as JSON. Send a well-formed JSON document.',
+	'malformed-path':
+		'The address holds a percent-encoding (`%` and two hex digits) that does not decode to text. Check how the address was built.',
 	'validation-failed':
 		'The JSON was read, but some fields are missing or invalid. `errors` lists each one with a JSON Pointer to the field and a message.',
 	unauthenticated: 'The request carries no valid session. Sign in, then send it again.',
@@ -26,6 +28,8 @@ const EXPLANATIONS: Record<ProblemSlug, string> = {
 	'duplicate-referral':
 		'The client already has a referral to this clinic that is sent or accepted; `openReferralId` names it. Open that one, or send `duplicateReason` to say why a second one is needed.',
 	'storage-unavailable': 'Document storage did not answer. Nothing was saved; try again shortly.',
+	'database-unavailable':
+		'Seamwell lost its database for a moment (a restart, say). Nothing half-done was kept: a change that got this answer was not saved. Try again in a few seconds.',
 	'internal-error':
 		'Something went wrong on Seamwell’s side. Nothing was saved half-way. Quote the reference in `detail` to support.'
 };

@@ -3,7 +3,17 @@ import { index, integer, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-
 
 const tz = { withTimezone: true, mode: 'date' } as const;
 
-export const outboxState = pgEnum('outbox_state', ['pending', 'sent', 'failed']);
+/**
+ * `expired`: a sign-in link not delivered within its lifetime, dropped rather than sent late;
+ * `superseded`: a sign-in link replaced by a newer one before it was sent.
+ */
+export const outboxState = pgEnum('outbox_state', [
+	'pending',
+	'sent',
+	'failed',
+	'expired',
+	'superseded'
+]);
 
 /** Every mail Seamwell sends is first a row here, written in the transaction that causes it. */
 export const outbox = pgTable(
@@ -22,6 +32,8 @@ export const outbox = pgTable(
 			.notNull()
 			.default(sql`now()`),
 		lastError: text('last_error'),
+		// Retries go on until this moment plus the retry window (48 h); "send again" resets it.
+		retryFrom: timestamp('retry_from', tz).notNull().defaultNow(),
 		createdAt: timestamp('created_at', tz).notNull().defaultNow(),
 		sentAt: timestamp('sent_at', tz)
 	},
