@@ -33,7 +33,9 @@ test('an instructor adds a client, screens her past the threshold and sees refer
 	// Bad input first: a missing width is named beside its field, nothing is recorded.
 	await page.getByRole('button', { name: 'Record and classify' }).click();
 	await expect(page.getByRole('alert')).toContainText('3 fields need attention');
-	await expect(page.locator('#at_navel-widthFingers-error')).toHaveText('required');
+	await expect(page.locator('#at_navel-widthFingers-error')).toHaveText(
+		'Choose the gap width at the navel'
+	);
 
 	await page.locator('#above_navel-widthFingers').selectOption('1.5');
 	await page.locator('#at_navel-widthFingers').selectOption('3');

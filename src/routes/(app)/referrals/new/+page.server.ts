@@ -1,6 +1,6 @@
-import { error, fail, redirect } from '@sveltejs/kit';
-import { referralFromForm } from '$lib/referrals/form';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { error, redirect } from '@sveltejs/kit';
+import { REFERRAL_WORDS, referralFromForm } from '$lib/referrals/form';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { listClients } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
 import { ProblemError } from '$lib/server/http/problem';
@@ -36,12 +36,12 @@ export const actions: Actions = {
 		// Policy before parsing: someone who may not refer learns nothing from the form.
 		if (!mayOpenReferral(caller.actor)) await notHere(caller, 'referral.created', ROUTE);
 		const parsed = referralFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		let id: string;
 		try {
 			({ id } = await openReferral(caller, parsed.data));
 		} catch (caught) {
-			return failFromProblem(caught, parsed.values);
+			return failFromProblem(caught, parsed.values, { words: REFERRAL_WORDS });
 		}
 		redirect(303, `/referrals/${id}`);
 	}
