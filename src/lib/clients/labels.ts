@@ -36,14 +36,8 @@ export function signed(value: number): string {
 	return value > 0 ? `+${value}` : `−${Math.abs(value)}`;
 }
 
-export function formatDate(value: string | Date): string {
-	return new Date(value).toLocaleDateString('en-GB', {
-		day: 'numeric',
-		month: 'short',
-		year: 'numeric',
-		timeZone: 'UTC'
-	});
-}
+/** Dates have one home: `$lib/dates` (re-exported here for the pages that read labels). */
+export { formatDate } from '$lib/dates';
 
 /**
  * A finger width as an approximate millimetre figure, always labelled an estimate with the

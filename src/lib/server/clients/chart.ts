@@ -1,4 +1,5 @@
 import { scaleLinear, scaleUtc } from 'd3-scale';
+import { formatDate, formatDayMonth } from '$lib/dates';
 import { line } from 'd3-shape';
 import {
 	FINGER_WIDTH_MAX,
@@ -18,16 +19,8 @@ export type { ChartSize, SiteChartGeometry };
 const MARGIN = { top: 12, right: 16, bottom: 28, left: 36 };
 const WEEK_MS = 7 * 86_400_000;
 
-export const formatDay = (t: string | Date) =>
-	new Date(t).toLocaleDateString('en-GB', {
-		day: 'numeric',
-		month: 'short',
-		year: 'numeric',
-		timeZone: 'UTC'
-	});
-
-const formatTick = (t: Date) =>
-	t.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
+export const formatDay = formatDate;
+const formatTick = formatDayMonth;
 
 /** Finger widths from 0 to 6 on a fixed axis, so the three sites' charts compare at a glance. */
 export function siteChartGeometry(
