@@ -36,39 +36,38 @@ export const init: ServerInit = async () => {
 };
 
 /** Headers every response carries; the Content-Security-Policy comes from svelte.config.js. */
+/**
+ * Headers every response carries. One list, so a response whose headers must be copied
+ * (below) gets exactly the same ones. Non-page responses (JSON, files) get a CSP that forbids
+ * everything active; pages keep SvelteKit's own.
+ */
+const SECURITY_HEADERS: ReadonlyArray<readonly [string, string]> = [
+	['X-Content-Type-Options', 'nosniff'],
+	['Referrer-Policy', 'strict-origin-when-cross-origin'],
+	['X-Frame-Options', 'DENY'],
+	['Cross-Origin-Opener-Policy', 'same-origin'],
+	['Permissions-Policy', 'camera=(), microphone=(), geolocation=(), payment=()'],
+	['Content-Security-Policy', "default-src 'none'; frame-ancestors 'none'"]
+];
+
+function addSecurityHeaders(headers: Headers) {
+	for (const [name, value] of SECURITY_HEADERS) {
+		if (!headers.has(name)) headers.set(name, value);
+	}
+}
+
 const securityHeaders: Handle = async ({ event, resolve }) => {
 	const response = await resolve(event);
-	const headers = response.headers;
-	const set = (name: string, value: string) => {
-		if (!headers.has(name)) headers.set(name, value);
-	};
 	try {
-		set('X-Content-Type-Options', 'nosniff');
-		set('Referrer-Policy', 'strict-origin-when-cross-origin');
-		set('X-Frame-Options', 'DENY');
-		set('Cross-Origin-Opener-Policy', 'same-origin');
-		set('Permissions-Policy', 'camera=(), microphone=(), geolocation=(), payment=()');
-		if (!headers.has('Content-Security-Policy')) {
-			// Non-page responses (JSON, files) get a CSP that forbids everything active.
-			set('Content-Security-Policy', "default-src 'none'; frame-ancestors 'none'");
-		}
+		addSecurityHeaders(response.headers);
 	} catch {
 		// Some responses (redirects made by libraries) have immutable headers: copy them.
-		return withHeaders(response);
+		const copy = new Response(response.body, response);
+		addSecurityHeaders(copy.headers);
+		return copy;
 	}
 	return response;
 };
-
-function withHeaders(response: Response): Response {
-	const copy = new Response(response.body, response);
-	copy.headers.set('X-Content-Type-Options', 'nosniff');
-	copy.headers.set('Referrer-Policy', 'strict-origin-when-cross-origin');
-	copy.headers.set('X-Frame-Options', 'DENY');
-	if (!copy.headers.has('Content-Security-Policy')) {
-		copy.headers.set('Content-Security-Policy', "default-src 'none'; frame-ancestors 'none'");
-	}
-	return copy;
-}
 
 /** Who is asking and from where, for the access log: anonymous until the session is read. */
 const accessContext: Handle = async ({ event, resolve }) => {
