@@ -44,6 +44,11 @@ export { formatDate } from '$lib/dates';
  * factor it used: "≈ 30 mm, estimate at 15 mm per finger". For showing only; no criterion
  * reads it.
  */
+/** "≈ 30 mm": in a table whose note says once how the estimate is made. */
+export function formatMmApprox(fingers: number, mmPerFinger: number): string {
+	return `≈ ${Math.round(fingersToMmEstimate(fingers, mmPerFinger).mm)} mm`;
+}
+
 export function formatMmEstimate(fingers: number, mmPerFinger: number): string {
 	const { mm, factor } = fingersToMmEstimate(fingers, mmPerFinger);
 	return `≈ ${Math.round(mm)} mm, estimate at ${factor} mm per finger`;
