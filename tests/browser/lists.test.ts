@@ -12,3 +12,12 @@ test('a tampered list filter shows the list with a plain note, not field pointer
 	await expect(page.getByRole('table')).toBeVisible();
 	await expect(page.locator('body')).not.toContainText('/sort');
 });
+
+test('a member with two roles is one row with both roles', async ({ page }) => {
+	await signIn(page, 'admin@studio.example');
+	await page.goto('/admin/members');
+	// Maren Okafor (demo) is the studio's instructor and its admin.
+	const rows = page.locator('tbody tr', { hasText: 'admin@studio.example' });
+	await expect(rows).toHaveCount(1);
+	await expect(rows.getByRole('combobox')).toHaveCount(2);
+});
