@@ -43,6 +43,22 @@ export default ts.config(
 		}
 	},
 	{
+		// Type-aware guards against promises nobody awaits or that land where a void callback is
+		// expected (an unhandled rejection, an event handler that returns before its work).
+		files: ['src/**/*.ts', 'src/**/*.svelte', 'tests/**/*.ts'],
+		languageOptions: {
+			parserOptions: {
+				projectService: true,
+				extraFileExtensions: ['.svelte'],
+				tsconfigRootDir: import.meta.dirname
+			}
+		},
+		rules: {
+			'@typescript-eslint/no-floating-promises': 'error',
+			'@typescript-eslint/no-misused-promises': 'error'
+		}
+	},
+	{
 		// Routes stay thin: they call services and never reach the database themselves.
 		files: ['src/routes/**'],
 		rules: {

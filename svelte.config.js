@@ -27,10 +27,7 @@ const config = {
 		},
 		// Absolute asset paths: the designed 404 page is also served in place of pages a person may
 		// not see, at any depth, so its links to scripts and styles must not be relative.
-		paths: { relative: false },
-		alias: {
-			$domain: 'src/lib/domain'
-		}
+		paths: { relative: false }
 	}
 };
 

@@ -46,7 +46,9 @@ test('an invitation is sent, accepted, and the new member signs in to her dashbo
 	// The admin sees the new member, deactivates her, and her session ends at once.
 	await page.reload();
 	await expect(page.getByRole('cell', { name: invitee, exact: true })).toHaveCount(1);
-	await page.getByRole('button', { name: new RegExp(`Deactivate ${invitee}`) }).click();
+	// A destructive step asks once more.
+	await page.getByText(new RegExp(`Deactivate… ${invitee}`)).click();
+	await page.getByRole('button', { name: new RegExp(`Yes, deactivate ${invitee}`) }).click();
 	await expect(page.getByRole('status')).toContainText('Member deactivated');
 	await newcomer.goto('/instructor');
 	await expect(newcomer).toHaveURL(/\/signin\?callbackUrl=/);
@@ -63,6 +65,7 @@ test('a pending invitation is revoked and its link then says so', async ({ page 
 	await expect(page.getByRole('cell', { name: invitee, exact: true })).toBeVisible();
 	const link = linkIn(await waitForNewMail(invitee, INVITE_SUBJECT, 0), '/invite/');
 
+	await page.getByText(`Revoke… the invitation for ${invitee}`).click();
 	await page.getByRole('button', { name: `Revoke the invitation for ${invitee}` }).click();
 	await expect(page.getByRole('status')).toHaveText('Invitation revoked.');
 	await expect(page.getByRole('cell', { name: invitee, exact: true })).toHaveCount(0);

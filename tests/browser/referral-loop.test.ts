@@ -45,7 +45,7 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 	await expect(instructor).toHaveTitle('New referral — Seamwell');
 	await instructor.getByRole('button', { name: 'Save draft' }).click();
 	await expect(instructor.getByRole('alert')).toContainText('fields need attention');
-	await expect(instructor.locator('#reason-error')).toHaveText('required');
+	await expect(instructor.locator('#reason-error')).toHaveText('Write why you are referring her');
 
 	const clientOption = instructor.locator('#clientId option', { hasText: 'Hana Lindqvist' });
 	await instructor.locator('#clientId').selectOption((await clientOption.getAttribute('value'))!);

@@ -36,6 +36,24 @@ test('pages carry the security headers', async ({ request }) => {
 	expect(headers['x-frame-options']).toBe('DENY');
 });
 
+test('a redirect made by Auth.js (immutable headers) carries the same headers as a page', async ({
+	request,
+	baseURL
+}) => {
+	// Auth.js answers a bogus confirmation with its own redirect, whose headers cannot be
+	// changed in place; the copy must get every header, not a shorter list.
+	const response = await request.post(
+		'/auth/callback/nodemailer?token=bogus&email=a%40b.example&callbackUrl=%2Fstart',
+		{ headers: { origin: baseURL! }, maxRedirects: 0 }
+	);
+	expect(response.status()).toBeGreaterThanOrEqual(300);
+	const headers = response.headers();
+	expect(headers['x-content-type-options']).toBe('nosniff');
+	expect(headers['x-frame-options']).toBe('DENY');
+	expect(headers['cross-origin-opener-policy']).toBe('same-origin');
+	expect(headers['permissions-policy']).toContain('camera=()');
+});
+
 test('JSON and error responses carry the security headers too', async ({ request }) => {
 	for (const path of ['/healthz', '/no-such-page']) {
 		const headers = (await request.get(path)).headers();

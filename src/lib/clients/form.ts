@@ -1,154 +1,212 @@
-import type { z } from 'zod';
-import { SITES } from '$lib/domain';
+import { z } from 'zod';
+import { SITES, SITE_LABELS, siteLabelCapitalised } from '$lib/domain';
 import {
+	formValues,
+	numberOf,
+	parseForm,
+	textOf,
+	yesNoOf,
+	type FormResult,
+	type FormValues,
+	type FormWords
+} from '$lib/forms';
+import {
+	clientCommonSchema,
 	clientCreateSchema,
+	clientFieldsSchema,
 	intakeConsentSchema,
 	screeningInputSchema,
 	type ClientCreateInput,
+	type ClientFields,
 	type ScreeningInputData
 } from './schemas';
 
-// Forms post flat fields; these turn them into the API's JSON shape so one schema checks
-// both, and turn the schema's issues back into errors keyed by form field name. Pure and
-// browser-safe: the pages also run them before submitting, for instant inline errors.
+// The client and screening forms post flat fields; these turn them into the API's JSON shape so
+// one schema checks both, and name every problem by its form field, in words for people. Pure
+// and browser-safe: the pages also run them before submitting, for instant inline errors.
 
-export type FormValues = Record<string, string | string[]>;
-export type FormErrors = Record<string, string>;
-
-export type FormResult<T> =
-	{ ok: true; data: T; values: FormValues } | { ok: false; errors: FormErrors; values: FormValues };
-
-/** Everything the person typed, to fill the form again after an error. */
-export function formValues(form: FormData): FormValues {
-	const values: FormValues = {};
-	for (const key of new Set(form.keys())) {
-		const all = form.getAll(key).filter((v): v is string => typeof v === 'string');
-		values[key] = key === 'redFlags' ? all : (all[0] ?? '');
-	}
-	return values;
-}
-
-const str = (values: FormValues, key: string): string => {
-	const value = values[key];
-	return typeof value === 'string' ? value.trim() : '';
+export const CLIENT_WORDS: FormWords = {
+	name: { label: 'Name', missing: 'Enter her name' },
+	email: {
+		label: 'E-mail',
+		missing: 'Enter an e-mail address like name@example.com, or leave it empty'
+	},
+	birthYear: {
+		label: 'Year of birth',
+		missing: 'Enter the year she was born, like 1990, or leave it empty'
+	},
+	stage: { label: 'Stage', missing: 'Choose whether she is pregnant or postpartum' },
+	dueDate: { label: 'Due date', missing: 'Enter her due date' },
+	birthDate: { label: 'Birth date', missing: 'Enter the date the baby was born' },
+	delivery: { label: 'Delivery', missing: 'Choose how the baby was born' },
+	births: { label: 'Births so far', missing: 'Enter how many births she has had, as a number' },
+	multiples: { label: 'Twins or more', missing: 'Tick the box only for twins or more' },
+	postnatalCheckOn: {
+		label: 'Postnatal check date',
+		missing: 'Enter the day of her postnatal check, or leave it empty'
+	},
+	postnatalCleared: { label: 'Cleared at the check', missing: 'Choose yes, no or not known yet' },
+	notes: { label: 'Notes' },
+	consentMethod: { label: 'How she agreed', missing: 'Choose how she agreed' },
+	consentAt: { label: 'Consent date', missing: 'Enter the day she agreed' }
 };
 
-/** A number field: empty is absent, digits are a number, anything else stays text (an error). */
-function num(values: FormValues, key: string): number | string | undefined {
-	const raw = str(values, key);
-	if (raw === '') return undefined;
-	const n = Number(raw.replace(',', '.'));
-	return Number.isFinite(n) ? n : raw;
-}
+export const SCREENING_WORDS: FormWords = {
+	takenAt: { label: 'Date', missing: 'Enter the day of the screening' },
+	redFlags: { label: 'Red flags', missing: 'Choose red flags from the list' },
+	notes: { label: 'Notes' },
+	...Object.fromEntries(
+		SITES.flatMap((site) => {
+			const where = SITE_LABELS[site];
+			const label = siteLabelCapitalised(site);
+			return [
+				[
+					`${site}.widthFingers`,
+					{ label: `${label}: width`, missing: `Choose the gap width ${where}` }
+				],
+				[
+					`${site}.widthMm`,
+					{
+						label: `${label}: width in mm`,
+						missing: `Enter the width ${where} in millimetres, or leave it empty`
+					}
+				],
+				[
+					`${site}.depth`,
+					{ label: `${label}: depth`, missing: `Choose how deep the fingers sink ${where}` }
+				],
+				[
+					`${site}.tension`,
+					{
+						label: `${label}: tension`,
+						missing: `Choose whether the midline feels firm or soft ${where}`
+					}
+				],
+				[
+					`${site}.doming`,
+					{ label: `${label}: doming`, missing: `Say whether you saw doming ${where}` }
+				]
+			];
+		})
+	)
+};
 
-function yesNo(values: FormValues, key: string): boolean | string | undefined {
-	const raw = str(values, key);
-	if (raw === 'yes') return true;
-	if (raw === 'no') return false;
-	return raw === '' ? undefined : raw;
-}
+/** Problem pointers and issue paths of the screening API as form fields (`sites.at_navel.depth` → `at_navel.depth`). */
+export const screeningField = (path: string) => path.replace(/^sites\./, '');
 
-/** Zod issue paths as form field names (`sites.above_navel.widthFingers` → `above_navel.widthFingers`). */
-export function issuesToFormErrors(
-	issues: readonly z.core.$ZodIssue[],
-	rename: (path: string) => string = (p) => p
-): FormErrors {
-	const errors: FormErrors = {};
-	for (const issue of issues) {
-		const key = rename(issue.path.map(String).join('.')) || 'form';
-		errors[key] ??= issue.message;
-	}
-	return errors;
-}
-
-/** Field names for pointers in problem details (`/sites/at_navel/depth` → `at_navel.depth`). */
-export function pointerToField(pointer: string): string {
-	return screeningField(pointer.replace(/^\//, '').split('/').join('.'));
-}
-
-function screeningField(path: string): string {
-	return path.replace(/^sites\./, '');
-}
-
-function clientField(path: string): string {
+/** Problem pointers and issue paths of the client API as form fields (`intakeConsent.at` → `consentAt`). */
+export function clientField(path: string): string {
 	if (path === 'intakeConsent.at') return 'consentAt';
 	if (path === 'intakeConsent.method' || path === 'intakeConsent') return 'consentMethod';
 	return path;
 }
 
 export function screeningFromForm(form: FormData): FormResult<ScreeningInputData> {
-	const values = formValues(form);
+	const values = formValues(form, ['redFlags']);
 	const sites: Record<string, unknown> = {};
 	for (const site of SITES) {
 		sites[site] = {
-			widthFingers: num(values, `${site}.widthFingers`),
-			widthMm: num(values, `${site}.widthMm`) ?? null,
-			depth: str(values, `${site}.depth`) || undefined,
-			tension: str(values, `${site}.tension`) || undefined,
-			doming: yesNo(values, `${site}.doming`)
+			widthFingers: numberOf(values, `${site}.widthFingers`),
+			widthMm: numberOf(values, `${site}.widthMm`) ?? null,
+			depth: textOf(values, `${site}.depth`) || undefined,
+			tension: textOf(values, `${site}.tension`) || undefined,
+			doming: yesNoOf(values, `${site}.doming`)
 		};
 	}
-	const parsed = screeningInputSchema.safeParse({
-		takenAt: str(values, 'takenAt') || undefined,
+	const body = {
+		takenAt: textOf(values, 'takenAt') || undefined,
 		sites,
-		redFlags: values.redFlags ?? [],
-		notes: str(values, 'notes')
+		redFlags: values.redFlags,
+		notes: textOf(values, 'notes')
+	};
+	return parseForm(screeningInputSchema, body, values, {
+		rename: screeningField,
+		words: SCREENING_WORDS
 	});
-	if (!parsed.success) {
-		return { ok: false, values, errors: issuesToFormErrors(parsed.error.issues, screeningField) };
-	}
-	return { ok: true, data: parsed.data, values };
 }
 
 /** The client fields from the new-client or edit form, in the API's shape (before parsing). */
 export function clientBodyFromForm(values: FormValues): Record<string, unknown> {
-	const stage = str(values, 'stage') || undefined;
+	const stage = textOf(values, 'stage') || undefined;
 	const body: Record<string, unknown> = {
-		name: str(values, 'name'),
-		email: str(values, 'email'),
-		birthYear: num(values, 'birthYear') ?? null,
-		notes: str(values, 'notes'),
+		name: textOf(values, 'name'),
+		email: textOf(values, 'email'),
+		birthYear: numberOf(values, 'birthYear') ?? null,
+		notes: textOf(values, 'notes'),
 		stage
 	};
 	if (stage === 'pregnant') {
-		body.dueDate = str(values, 'dueDate') || undefined;
+		body.dueDate = textOf(values, 'dueDate') || undefined;
 	} else if (stage === 'postpartum') {
-		body.birthDate = str(values, 'birthDate') || undefined;
-		body.delivery = str(values, 'delivery') || undefined;
-		body.births = num(values, 'births');
-		body.multiples = yesNo(values, 'multiples') ?? false;
-		body.postnatalCheckOn = str(values, 'postnatalCheckOn') || null;
-		body.postnatalCleared = yesNo(values, 'postnatalCleared') ?? null;
+		body.birthDate = textOf(values, 'birthDate') || undefined;
+		body.delivery = textOf(values, 'delivery') || undefined;
+		body.births = numberOf(values, 'births');
+		body.multiples = yesNoOf(values, 'multiples') ?? false;
+		body.postnatalCheckOn = textOf(values, 'postnatalCheckOn') || null;
+		body.postnatalCleared = yesNoOf(values, 'postnatalCleared') ?? null;
 	}
 	return body;
+}
+
+/**
+ * A client schema parse that reports every field at once: without a stage the union knows
+ * only that the stage is missing, so the fields both stages share are checked as well.
+ */
+function parseClient<T extends z.ZodType>(
+	schema: T,
+	body: Record<string, unknown>,
+	values: FormValues
+): FormResult<z.infer<T>> {
+	const parsed = parseForm(schema, body, values, { rename: clientField, words: CLIENT_WORDS });
+	if (parsed.ok || body.stage === 'pregnant' || body.stage === 'postpartum') return parsed;
+	const common = parseForm(clientCommonSchema.extend({ stage: z.unknown() }), body, values, {
+		rename: clientField,
+		words: CLIENT_WORDS
+	});
+	const consent = body.intakeConsent
+		? parseForm(intakeConsentSchema, body.intakeConsent, values, {
+				rename: (p) => clientField(`intakeConsent.${p}`),
+				words: CLIENT_WORDS
+			})
+		: null;
+	return {
+		ok: false,
+		values,
+		errors: {
+			...(common.ok ? {} : common.errors),
+			...(consent && !consent.ok ? consent.errors : {}),
+			...parsed.errors
+		}
+	};
 }
 
 export function clientFromForm(form: FormData): FormResult<ClientCreateInput> {
 	const values = formValues(form);
 	const body = clientBodyFromForm(values);
-	const method = str(values, 'consentMethod');
+	const method = textOf(values, 'consentMethod');
 	if (method !== '') {
-		body.intakeConsent = { method, at: str(values, 'consentAt') || undefined };
+		body.intakeConsent = { method, at: textOf(values, 'consentAt') || undefined };
 	}
-	const parsed = clientCreateSchema.safeParse(body);
-	if (!parsed.success) {
-		return { ok: false, values, errors: issuesToFormErrors(parsed.error.issues, clientField) };
-	}
-	return { ok: true, data: parsed.data, values };
+	return parseClient(clientCreateSchema, body, values);
+}
+
+/** The edit form: the whole record, checked before the service merges it (which checks again). */
+export function clientEditFromForm(
+	form: FormData
+): FormResult<ClientFields> & { body: Record<string, unknown> } {
+	const values = formValues(form);
+	const body = clientBodyFromForm(values);
+	return { ...parseClient(clientFieldsSchema, body, values), body };
 }
 
 export function consentFromForm(form: FormData): FormResult<z.infer<typeof intakeConsentSchema>> {
 	const values = formValues(form);
-	const parsed = intakeConsentSchema.safeParse({
-		method: str(values, 'consentMethod') || undefined,
-		at: str(values, 'consentAt') || undefined
+	const body = {
+		method: textOf(values, 'consentMethod') || undefined,
+		at: textOf(values, 'consentAt') || undefined
+	};
+	return parseForm(intakeConsentSchema, body, values, {
+		rename: (p) => clientField(`intakeConsent.${p}`),
+		words: CLIENT_WORDS
 	});
-	if (!parsed.success) {
-		return {
-			ok: false,
-			values,
-			errors: issuesToFormErrors(parsed.error.issues, (p) => clientField(`intakeConsent.${p}`))
-		};
-	}
-	return { ok: true, data: parsed.data, values };
 }

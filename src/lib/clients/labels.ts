@@ -1,4 +1,5 @@
 import { fingersToMmEstimate, type Outcome, type ReferTo, type TrendDirection } from '$lib/domain';
+import { formatDate } from '$lib/dates';
 
 // Words the screens use for stored codes, in one place.
 
@@ -47,20 +48,19 @@ export function signed(value: number): string {
 	return value > 0 ? `+${value}` : `−${Math.abs(value)}`;
 }
 
-export function formatDate(value: string | Date): string {
-	return new Date(value).toLocaleDateString('en-GB', {
-		day: 'numeric',
-		month: 'short',
-		year: 'numeric',
-		timeZone: 'UTC'
-	});
-}
+/** Dates have one home: `$lib/dates` (re-exported here for the pages that read labels). */
+export { formatDate };
 
 /**
  * A finger width as an approximate millimetre figure, always labelled an estimate with the
  * factor it used: "≈ 30 mm, estimate at 15 mm per finger". For showing only; no criterion
  * reads it.
  */
+/** "≈ 30 mm": in a table whose note says once how the estimate is made. */
+export function formatMmApprox(fingers: number, mmPerFinger: number): string {
+	return `≈ ${Math.round(fingersToMmEstimate(fingers, mmPerFinger).mm)} mm`;
+}
+
 export function formatMmEstimate(fingers: number, mmPerFinger: number): string {
 	const { mm, factor } = fingersToMmEstimate(fingers, mmPerFinger);
 	return `≈ ${Math.round(mm)} mm, estimate at ${factor} mm per finger`;

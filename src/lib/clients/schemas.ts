@@ -167,6 +167,9 @@ const clientCommon = {
 	notes: optionalText(4000)
 };
 
+/** The fields both stages share (the forms check them even before a stage is chosen). */
+export const clientCommonSchema = z.object(clientCommon);
+
 /** A due date may lie up to 44 weeks ahead, or up to 6 weeks behind (a late birth not yet recorded). */
 const dueDate = day.refine((value) => {
 	const due = Date.parse(`${value}T00:00:00Z`);

@@ -1,72 +1,61 @@
 import type { z } from 'zod';
-import {
-	formValues,
-	issuesToFormErrors,
-	type FormResult,
-	type FormValues
-} from '$lib/clients/form';
+import { formValues, parseForm, textOf, type FormResult, type FormWords } from '$lib/forms';
 import { giveConsentSchema, openReferralSchema, transitionSchema } from './schemas';
 
-// Forms post flat fields; these shape them like the API's JSON so one schema checks both.
-// Pure and browser-safe: the pages run them before submitting, for instant inline errors.
+// The referral and consent forms post flat fields; these shape them like the API's JSON so one
+// schema checks both, and say what to fix in words for people. Pure and browser-safe: the pages
+// run them before submitting, for instant inline errors.
 
-export type { FormResult, FormValues };
-
-const str = (values: FormValues, key: string): string => {
-	const value = values[key];
-	return typeof value === 'string' ? value.trim() : '';
+export const REFERRAL_WORDS: FormWords = {
+	clientId: { label: 'Client', missing: 'Choose the client to refer' },
+	clinicId: { label: 'Clinic', missing: 'Choose the clinic to refer her to' },
+	physioId: { label: 'Physiotherapist', missing: 'Choose a physiotherapist, or leave it open' },
+	reason: { label: 'Reason', missing: 'Write why you are referring her' },
+	urgency: { label: 'Urgency', missing: 'Choose how soon she should be seen' },
+	redFlags: { label: 'Red flags', missing: 'Choose red flags from the list' },
+	duplicateReason: { label: 'Open referral', missing: 'Say why she needs a second referral' }
 };
 
-const list = (form: FormData, key: string): string[] =>
-	form.getAll(key).filter((v): v is string => typeof v === 'string');
+export const CONSENT_WORDS: FormWords = {
+	clinicId: { label: 'Clinic', missing: 'Choose the clinic to share with' },
+	scopes: { label: 'What to share', missing: 'Choose at least one thing to share' },
+	endsAt: { label: 'End date', missing: 'Enter the day sharing should end, or leave it empty' }
+};
 
-function result<T extends z.ZodType>(
-	schema: T,
-	body: unknown,
-	values: FormValues
-): FormResult<z.infer<T>> {
-	const parsed = schema.safeParse(body);
-	if (!parsed.success) {
-		return {
-			ok: false,
-			values,
-			errors: issuesToFormErrors(parsed.error.issues, (p) => p.split('.')[0]!)
-		};
-	}
-	return { ok: true, data: parsed.data, values };
-}
+export const TRANSITION_WORDS: FormWords = {
+	to: { label: 'Next step', missing: 'Choose what happens to the referral' },
+	reason: { label: 'Reason' }
+};
+
+/** Issue paths name the field itself, never an item in a list (`scopes.0` → `scopes`). */
+const topField = (path: string) => path.split('.')[0]!;
 
 export function referralFromForm(form: FormData): FormResult<z.infer<typeof openReferralSchema>> {
-	const values = { ...formValues(form), redFlags: list(form, 'redFlags') };
-	return result(
-		openReferralSchema,
-		{
-			clientId: str(values, 'clientId'),
-			clinicId: str(values, 'clinicId'),
-			physioId: str(values, 'physioId') || null,
-			reason: str(values, 'reason'),
-			urgency: str(values, 'urgency') || undefined,
-			redFlags: values.redFlags,
-			duplicateReason: str(values, 'duplicateReason')
-		},
-		values
-	);
+	const values = formValues(form, ['redFlags']);
+	const body = {
+		clientId: textOf(values, 'clientId'),
+		clinicId: textOf(values, 'clinicId'),
+		physioId: textOf(values, 'physioId') || null,
+		reason: textOf(values, 'reason'),
+		urgency: textOf(values, 'urgency') || undefined,
+		redFlags: values.redFlags,
+		duplicateReason: textOf(values, 'duplicateReason')
+	};
+	return parseForm(openReferralSchema, body, values, { rename: topField, words: REFERRAL_WORDS });
 }
 
 export function consentFromForm(form: FormData): FormResult<z.infer<typeof giveConsentSchema>> {
-	const values = { ...formValues(form), scopes: list(form, 'scopes') };
-	return result(
-		giveConsentSchema,
-		{
-			clinicId: str(values, 'clinicId'),
-			scopes: values.scopes,
-			endsAt: str(values, 'endsAt') || null
-		},
-		values
-	);
+	const values = formValues(form, ['scopes']);
+	const body = {
+		clinicId: textOf(values, 'clinicId'),
+		scopes: values.scopes,
+		endsAt: textOf(values, 'endsAt') || null
+	};
+	return parseForm(giveConsentSchema, body, values, { rename: topField, words: CONSENT_WORDS });
 }
 
 export function transitionFromForm(form: FormData): FormResult<z.infer<typeof transitionSchema>> {
 	const values = formValues(form);
-	return result(transitionSchema, { to: str(values, 'to'), reason: str(values, 'reason') }, values);
+	const body = { to: textOf(values, 'to'), reason: textOf(values, 'reason') };
+	return parseForm(transitionSchema, body, values, { rename: topField, words: TRANSITION_WORDS });
 }

@@ -16,7 +16,10 @@ const schema = z.object({
 	S3_SECRET_ACCESS_KEY: z.string().default('S3RVER'),
 	SMTP_HOST: z.string().min(1),
 	SMTP_PORT: z.coerce.number().int().positive(),
-	MAIL_FROM: z.string().min(3).default('Seamwell <no-reply@seamwell.example>')
+	MAIL_FROM: z.string().min(3).default('Seamwell <no-reply@seamwell.example>'),
+	// Sign-in requests allowed in any 15 minutes, per e-mail address and per client address.
+	RATE_LIMIT_SIGNIN_PER_EMAIL: z.coerce.number().int().positive().default(5),
+	RATE_LIMIT_SIGNIN_PER_IP: z.coerce.number().int().positive().default(30)
 });
 
 export type Config = z.infer<typeof schema>;

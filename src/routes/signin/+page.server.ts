@@ -1,6 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
+import { issuesToFormErrors } from '$lib/forms';
 import { requestSignInLink } from '$lib/server/auth';
-import { fieldMessages } from '$lib/server/people/forms';
+import { failForm } from '$lib/server/http/form';
 import { safeCallbackUrl, signInForm } from '$lib/server/people/signin-form';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -23,7 +24,7 @@ export const actions: Actions = {
 		};
 		const parsed = signInForm.safeParse({ email: values.email });
 		if (!parsed.success) {
-			return fail(400, { values, errors: fieldMessages(parsed.error.issues) });
+			return failForm(values, issuesToFormErrors(parsed.error.issues));
 		}
 		const outcome = await requestSignInLink(event, parsed.data.email, values.callbackUrl);
 		if (outcome === 'limited') {

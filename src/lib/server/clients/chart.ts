@@ -1,4 +1,5 @@
 import { scaleLinear, scaleUtc } from 'd3-scale';
+import { formatDate, formatDayMonth } from '$lib/dates';
 import { line } from 'd3-shape';
 import {
 	FINGER_WIDTH_MAX,
@@ -30,16 +31,8 @@ const INSET = 12;
 const WEEK_MS = 7 * 86_400_000;
 export const DEFAULT_CHART_SIZE: ChartSize = { width: 300, height: 200 };
 
-export const formatDay = (t: string | Date) =>
-	new Date(t).toLocaleDateString('en-GB', {
-		day: 'numeric',
-		month: 'short',
-		year: 'numeric',
-		timeZone: 'UTC'
-	});
-
-const formatTick = (t: Date) =>
-	t.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
+export const formatDay = formatDate;
+const formatTick = formatDayMonth;
 
 /** The finger-width range to show: the data with half a finger either side, and the threshold. */
 export function yDomain(points: readonly ChartPoint[]): [number, number] {

@@ -10,7 +10,7 @@ import {
 	type SiteMeasure,
 	type StageContext
 } from '../../domain';
-import { formatDate } from '../../clients/labels';
+import { formatDate } from '$lib/dates';
 
 /**
  * The version of the classification rules a stored outcome was decided by. Bump it whenever

@@ -3,7 +3,7 @@ import { PROBLEM_TYPES, ProblemError } from './problem';
 import { readId } from './api';
 
 // Pages call the same services as the JSON API; these turn a service's problem into the
-// designed error page. (Form actions use clients/actions.ts failFromProblem for inline errors.)
+// designed error page. (Form actions use http/form.ts for inline errors.)
 
 /** Runs a page's service call; a problem (not found, forbidden …) becomes SvelteKit's error page. */
 export async function forPage<T>(work: Promise<T> | (() => Promise<T> | T)): Promise<T> {

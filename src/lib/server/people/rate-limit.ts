@@ -1,5 +1,5 @@
 import { and, count, eq, lt, sql } from 'drizzle-orm';
-import { z } from 'zod';
+import { config } from '../config';
 import { db } from '../db';
 import { rateLimitHits } from '../db/schema';
 
@@ -14,16 +14,12 @@ export interface SignInLimits {
 	perAddress: number;
 }
 
-const limitsSchema = z.object({
-	RATE_LIMIT_SIGNIN_PER_EMAIL: z.coerce.number().int().positive().default(5),
-	RATE_LIMIT_SIGNIN_PER_IP: z.coerce.number().int().positive().default(30)
-});
-
+/** The limits from the checked configuration (config.ts). */
 export function signInLimits(): SignInLimits {
-	const parsed = limitsSchema.parse(process.env);
+	const settings = config();
 	return {
-		perEmail: parsed.RATE_LIMIT_SIGNIN_PER_EMAIL,
-		perAddress: parsed.RATE_LIMIT_SIGNIN_PER_IP
+		perEmail: settings.RATE_LIMIT_SIGNIN_PER_EMAIL,
+		perAddress: settings.RATE_LIMIT_SIGNIN_PER_IP
 	};
 }
 

@@ -1,8 +1,8 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { DEFAULT_MM_PER_FINGER } from '$lib/domain';
 import { requirePageCaller } from '$lib/server/context';
-import { formFailure } from '$lib/server/people/forms';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { ORGANISATION_COOKIE } from '$lib/server/people/sessions';
 import {
 	chooseOrganisation,
@@ -59,13 +59,13 @@ export const actions: Actions = {
 		const values = { organisationId: String(form.get('organisationId') ?? '') };
 		const parsed = switchForm.safeParse(values);
 		if (!parsed.success) {
-			return fail(400, { values, errors: { organisationId: 'Choose an organisation.' } });
+			return failForm(values, { organisationId: 'Choose an organisation.' }, { form: 'switch' });
 		}
 		let organisationId: string;
 		try {
 			organisationId = chooseOrganisation(caller, parsed.data.organisationId);
 		} catch (e) {
-			return formFailure(e, values);
+			return failFromProblem(e, values, { form: 'switch' });
 		}
 		cookies.set(ORGANISATION_COOKIE, organisationId, {
 			path: '/',
@@ -84,13 +84,13 @@ export const actions: Actions = {
 		const values = { mmPerFinger: typeof raw === 'string' ? raw : '' };
 		const parsed = factorForm.safeParse({ mmPerFinger: raw ?? undefined });
 		if (!parsed.success) {
-			return fail(400, { values, errors: { mmPerFinger: factorMessage } });
+			return failForm(values, { mmPerFinger: factorMessage }, { form: 'factor' });
 		}
 		try {
 			const saved = await setFingerFactor(caller, parsed.data.mmPerFinger);
 			return { factorSaved: true, mmPerFinger: saved };
 		} catch (e) {
-			return formFailure(e, values);
+			return failFromProblem(e, values, { form: 'factor' });
 		}
 	}
 };

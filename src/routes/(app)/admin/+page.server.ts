@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
 import { listFailedMailFor, resendFailedMail } from '$lib/server/mail/service';
-import { formFailure } from '$lib/server/people/forms';
+import { failFromProblem } from '$lib/server/http/form';
 import { summariseArea } from '$lib/server/people/service';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -30,7 +30,7 @@ export const actions: Actions = {
 		try {
 			await resendFailedMail(caller, parsed.data.mailId);
 		} catch (e) {
-			return formFailure(e, values);
+			return failFromProblem(e, values);
 		}
 		return { resent: parsed.data.mailId };
 	}

@@ -1,7 +1,6 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { consentFromForm } from '$lib/referrals/form';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { CONSENT_WORDS, consentFromForm } from '$lib/referrals/form';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { getConsentOverview, giveConsent, withdrawConsent } from '$lib/server/consents/service';
 import { requirePageCaller } from '$lib/server/context';
 import { mayGiveConsent } from '$lib/server/consents/policy';
@@ -27,11 +26,11 @@ export const actions: Actions = {
 		const caller = requirePageCaller(locals, url);
 		if (!mayGiveConsent(caller.actor)) await notHere(caller, 'consent.given', ROUTE);
 		const parsed = consentFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		try {
 			await giveConsent(caller, parsed.data);
 		} catch (caught) {
-			return failFromProblem(caught, parsed.values);
+			return failFromProblem(caught, parsed.values, { words: CONSENT_WORDS });
 		}
 		return { given: parsed.data.clinicId };
 	},
@@ -45,7 +44,7 @@ export const actions: Actions = {
 			const id = readId(raw);
 			await withdrawConsent(caller, id);
 		} catch (caught) {
-			return failFromProblem(caught, {});
+			return failFromProblem(caught);
 		}
 		return { withdrawn: true };
 	}

@@ -1,6 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { requestSignInLink } from '$lib/server/auth';
-import { formFailure } from '$lib/server/people/forms';
+import { failFromProblem } from '$lib/server/http/form';
 import { acceptInvitation, inspectInvitation } from '$lib/server/people/service';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -22,7 +22,7 @@ export const actions: Actions = {
 		try {
 			accepted = await acceptInvitation(token, event.locals.actor, event.locals.access);
 		} catch (e) {
-			return formFailure(e, {});
+			return failFromProblem(e);
 		}
 		if (event.locals.actor) redirect(303, '/start');
 		await requestSignInLink(event, accepted.email, '/start');

@@ -1,7 +1,8 @@
-import { fail, type RequestEvent } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { requirePageCaller } from '$lib/server/context';
-import { fieldMessages, formFailure } from '$lib/server/people/forms';
+import { issuesToFormErrors } from '$lib/forms';
+import { failForm, failFromProblem, formDone } from '$lib/server/http/form';
 import { forPage } from '$lib/server/http/page';
 import {
 	changeRoleForm,
@@ -38,15 +39,14 @@ async function run<S extends z.ZodType>(
 	);
 	const parsed = schema.safeParse(values);
 	if (!parsed.success) {
-		return fail(400, { form, values, errors: fieldMessages(parsed.error.issues) });
+		return failForm(values, issuesToFormErrors(parsed.error.issues), { form });
 	}
 	try {
 		await work(caller, parsed.data);
 	} catch (e) {
-		const failure = formFailure(e, values);
-		return fail(failure.status, { form, ...failure.data });
+		return failFromProblem(e, values, { form });
 	}
-	return { form, done };
+	return formDone(done, form);
 }
 
 export const actions: Actions = {

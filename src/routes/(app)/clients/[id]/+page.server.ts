@@ -1,7 +1,6 @@
-import { fail } from '@sveltejs/kit';
 import { SITES, siteLabelCapitalised } from '$lib/domain';
-import { consentFromForm } from '$lib/clients/form';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { CLIENT_WORDS, clientField, consentFromForm } from '$lib/clients/form';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { combinedChartGeometry, siteChartGeometry } from '$lib/server/clients/chart';
 import {
 	assertMayWriteClient,
@@ -47,11 +46,11 @@ export const actions: Actions = {
 		const caller = requirePageCaller(locals, url);
 		await forPage(assertMayWriteClient(caller, pageId(params.id)));
 		const parsed = consentFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		try {
 			await updateClient(caller, pageId(params.id), { intakeConsent: parsed.data });
 		} catch (caught) {
-			return failFromProblem(caught, parsed.values);
+			return failFromProblem(caught, parsed.values, { rename: clientField, words: CLIENT_WORDS });
 		}
 		return { consentRecorded: true };
 	},
@@ -61,7 +60,7 @@ export const actions: Actions = {
 			const { sentTo } = await inviteClientToSignIn(caller, pageId(params.id));
 			return { invitedTo: sentTo };
 		} catch (caught) {
-			return failFromProblem(caught, {});
+			return failFromProblem(caught);
 		}
 	}
 };

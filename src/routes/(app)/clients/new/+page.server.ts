@@ -1,6 +1,6 @@
-import { fail, redirect } from '@sveltejs/kit';
-import { clientFromForm } from '$lib/clients/form';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { redirect } from '@sveltejs/kit';
+import { CLIENT_WORDS, clientField, clientFromForm } from '$lib/clients/form';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { assertMayKeepClients, createClient } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
@@ -16,12 +16,12 @@ export const actions: Actions = {
 		const caller = requirePageCaller(locals, url);
 		await forPage(assertMayKeepClients(caller));
 		const parsed = clientFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		let id: string;
 		try {
 			({ id } = await createClient(caller, parsed.data));
 		} catch (caught) {
-			return failFromProblem(caught, parsed.values);
+			return failFromProblem(caught, parsed.values, { rename: clientField, words: CLIENT_WORDS });
 		}
 		redirect(303, `/clients/${id}`);
 	}

@@ -4,17 +4,20 @@ import { chartSeries, SITES } from '$lib/domain';
 import { transitionFromForm } from '$lib/referrals/form';
 import { consentRequestSchema } from '$lib/referrals/schemas';
 import type { ReferralScreening } from '$lib/referrals/types';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { siteChartGeometry } from '$lib/server/clients/chart';
 import { requestConsent } from '$lib/server/consents/service';
 import { requirePageCaller } from '$lib/server/context';
+import { formDone } from '$lib/server/http/form';
 import { forPage, pageId } from '$lib/server/http/page';
-import { documentFailure, documentSuccess } from '$lib/server/documents/forms';
 import { documentPatchSchema, readUploadForm } from '$lib/server/documents/schemas';
 import { getDocumentPanel, updateDocument, uploadDocument } from '$lib/server/documents/service';
 import { ProblemError } from '$lib/server/http/problem';
 import { getReferral, listLiveScreenings, transitionReferral } from '$lib/server/referrals/service';
 import type { Actions, PageServerLoad } from './$types';
+
+/** The document panel's forms answer under this name. */
+const DOCUMENTS = { form: 'documents' } as const;
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
@@ -37,7 +40,7 @@ export const actions: Actions = {
 		const caller = requirePageCaller(locals, url);
 		const id = pageId(params.id);
 		const parsed = transitionFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		try {
 			const moved = await transitionReferral(caller, id, parsed.data);
 			return { moved: moved.state };
@@ -59,12 +62,11 @@ export const actions: Actions = {
 			clientId: form.get('clientId'),
 			clinicId: form.get('clinicId')
 		});
-		if (!parsed.success)
-			return fail(400, { values: {}, errors: { form: 'Missing client or clinic.' } });
+		if (!parsed.success) return failForm({}, { form: 'Missing client or clinic.' });
 		try {
 			await requestConsent(caller, parsed.data);
 		} catch (caught) {
-			return failFromProblem(caught, {});
+			return failFromProblem(caught);
 		}
 		return { requested: true };
 	},
@@ -75,16 +77,14 @@ export const actions: Actions = {
 		const id = pageId(params.id);
 		const parsed = await readUploadForm(await request.formData());
 		if (!parsed.ok) {
-			return fail(400, {
-				documents: { message: 'Choose a PDF file to upload. Nothing was saved.', ok: false }
-			});
+			return failForm({}, { form: 'Choose a PDF file to upload. Nothing was saved.' }, DOCUMENTS);
 		}
 		try {
 			await uploadDocument(caller, id, parsed.data);
 		} catch (caught) {
-			return documentFailure(caught);
+			return failFromProblem(caught, {}, DOCUMENTS);
 		}
-		return documentSuccess(`Uploaded ${parsed.data.fileName}.`);
+		return formDone(`Uploaded ${parsed.data.fileName}.`, 'documents');
 	},
 	updateDocument: async ({ locals, url, request }) => {
 		const caller = requirePageCaller(locals, url);
@@ -95,13 +95,13 @@ export const actions: Actions = {
 			summary: form.get('summary') ?? undefined
 		});
 		if (!patch.success || !documentId.success) {
-			return fail(400, { documents: { message: 'Choose how to share the document.', ok: false } });
+			return failForm({}, { form: 'Choose how to share the document.' }, DOCUMENTS);
 		}
 		try {
 			const updated = await updateDocument(caller, documentId.data, patch.data);
-			return documentSuccess(`Saved the changes to ${updated.name}.`);
+			return formDone(`Saved the changes to ${updated.name}.`, 'documents');
 		} catch (caught) {
-			return documentFailure(caught);
+			return failFromProblem(caught, {}, DOCUMENTS);
 		}
 	}
 };

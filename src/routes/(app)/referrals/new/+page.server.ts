@@ -1,7 +1,7 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import type { FormErrors } from '$lib/clients/form';
-import { referralFromForm } from '$lib/referrals/form';
-import { failFromProblem } from '$lib/server/clients/actions';
+import type { FormErrors } from '$lib/forms';
+import { REFERRAL_WORDS, referralFromForm } from '$lib/referrals/form';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { listClients } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
 import { ProblemError } from '$lib/server/http/problem';
@@ -37,7 +37,7 @@ export const actions: Actions = {
 		// Policy before parsing: someone who may not refer learns nothing from the form.
 		if (!mayOpenReferral(caller.actor)) await notHere(caller, 'referral.created', ROUTE);
 		const parsed = referralFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		let id: string;
 		try {
 			({ id } = await openReferral(caller, parsed.data));
@@ -50,7 +50,7 @@ export const actions: Actions = {
 					openReferralId: String(caught.init.openReferralId)
 				});
 			}
-			return failFromProblem(caught, parsed.values);
+			return failFromProblem(caught, parsed.values, { words: REFERRAL_WORDS });
 		}
 		redirect(303, `/referrals/${id}`);
 	}

@@ -1,7 +1,8 @@
 import { error, redirect } from '@sveltejs/kit';
-import { clientBodyFromForm, formValues, type FormValues } from '$lib/clients/form';
+import { CLIENT_WORDS, clientEditFromForm, clientField } from '$lib/clients/form';
+import type { FormValues } from '$lib/forms';
 import type { ClientDetail } from '$lib/clients/types';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { assertMayWriteClient, getClient, updateClient } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
@@ -38,11 +39,12 @@ export const actions: Actions = {
 		const caller = requirePageCaller(locals, url);
 		const id = pageId(params.id);
 		await forPage(assertMayWriteClient(caller, id));
-		const values = formValues(await request.formData());
+		const parsed = clientEditFromForm(await request.formData());
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		try {
-			await updateClient(caller, id, clientBodyFromForm(values));
+			await updateClient(caller, id, parsed.body);
 		} catch (caught) {
-			return failFromProblem(caught, values);
+			return failFromProblem(caught, parsed.values, { rename: clientField, words: CLIENT_WORDS });
 		}
 		redirect(303, `/clients/${id}`);
 	}

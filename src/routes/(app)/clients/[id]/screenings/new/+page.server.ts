@@ -1,7 +1,7 @@
-import { error, fail } from '@sveltejs/kit';
+import { error } from '@sveltejs/kit';
 import { earlyScreenWarnings, redFlagsForStage, SITES, type Site } from '$lib/domain';
-import { screeningFromForm } from '$lib/clients/form';
-import { failFromProblem } from '$lib/server/clients/actions';
+import { SCREENING_WORDS, screeningField, screeningFromForm } from '$lib/clients/form';
+import { failForm, failFromProblem } from '$lib/server/http/form';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { stageContextAt } from '$lib/server/clients/screening-record';
 import {
@@ -38,7 +38,7 @@ export const actions: Actions = {
 		const caller = requirePageCaller(locals, url);
 		await forPage(assertMayWriteClient(caller, pageId(params.id)));
 		const parsed = screeningFromForm(await request.formData());
-		if (!parsed.ok) return fail(400, { values: parsed.values, errors: parsed.errors });
+		if (!parsed.ok) return failForm(parsed.values, parsed.errors);
 		try {
 			const result = await recordScreening(caller, pageId(params.id), parsed.data);
 			// The widths as recorded, for the result's finger widths and their mm estimates.
@@ -47,7 +47,10 @@ export const actions: Actions = {
 			) as Record<Site, number>;
 			return { result, widths };
 		} catch (caught) {
-			return failFromProblem(caught, parsed.values);
+			return failFromProblem(caught, parsed.values, {
+				rename: screeningField,
+				words: SCREENING_WORDS
+			});
 		}
 	}
 };
