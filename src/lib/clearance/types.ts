@@ -1,0 +1,29 @@
+import type { ClearanceLevel, MovementCategory } from '$lib/domain/movement';
+
+// Browser-safe shapes of assessments and clearances, shared by the API, the pages and the
+// server (the schema stores points and levels as these).
+
+export const MEASUREMENT_POSITIONS = ['xiphoid', 'above', 'at', 'below'] as const;
+export type MeasurementPositionCode = (typeof MEASUREMENT_POSITIONS)[number];
+
+export const MEASUREMENT_METHODS = ['palpation', 'caliper', 'ultrasound'] as const;
+export type MeasurementMethod = (typeof MEASUREMENT_METHODS)[number];
+
+export const HERNIA_FINDINGS = ['none', 'suspected', 'found'] as const;
+export type HerniaFinding = (typeof HERNIA_FINDINGS)[number];
+
+/** One measurement point of a physiotherapist's assessment. */
+export interface AssessmentPoint {
+	position: MeasurementPositionCode;
+	/** Distance from the navel in cm; null at the xiphoid, 0 at the navel. */
+	distanceCm: number | null;
+	restMm: number | null;
+	curlUpMm: number | null;
+	method: MeasurementMethod;
+	depth: 'shallow' | 'moderate' | 'deep' | null;
+	tension: 'firm' | 'soft' | null;
+	doming: boolean | null;
+}
+
+export type ClearanceLevels = Record<MovementCategory, ClearanceLevel>;
+export type ClearanceModifications = Partial<Record<MovementCategory, string>>;
