@@ -6,3 +6,4 @@ export * from './clients';
 export * from './sharing';
 export * from './documents';
 export * from './clearance';
+export * from './plans';
