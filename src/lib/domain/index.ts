@@ -10,3 +10,4 @@ export * from './stage';
 export * from './trend';
 export * from './weeks';
 export * from './movement';
+export * from './limits';
