@@ -39,8 +39,12 @@ export const AUDIT_ACTIONS = [
 	'document.downloaded',
 	'document.updated',
 	'letter.downloaded',
+	'assessment.recorded',
+	'assessment.read',
 	'clearance.set',
 	'clearance.read',
+	'clearance.listed',
+	'clearance.reminded',
 	'audit.read',
 	'audit.exported',
 	'access.denied'
