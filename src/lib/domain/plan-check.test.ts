@@ -81,11 +81,11 @@ const ex = (id: string) => {
 
 describe('checkPlan — statuses', () => {
 	it('answers ok with "no clinician’s decision yet" where levels are no_limit', () => {
-		const [cell] = checkPlan(
+		const cell = checkPlan(
 			{ items: [{ exerciseId: 'curl-up' }] },
 			[client('a', limits())],
 			library
-		);
+		)[0]!;
 		expect(cell).toMatchObject({ status: 'ok', overridable: false, exerciseId: 'curl-up' });
 		expect(cell.reason).toMatch(/no clinician’s decision yet for Loaded spinal flexion/i);
 		expect(cell.alternativeExerciseId).toBeUndefined();
@@ -117,7 +117,7 @@ describe('checkPlan — statuses', () => {
 	});
 
 	it('modifies with the clinician’s modification text, every one listed', () => {
-		const [cell] = checkPlan(
+		const cell = checkPlan(
 			{ items: [{ exerciseId: 'oblique-curl-up' }] },
 			[
 				client(
@@ -141,7 +141,7 @@ describe('checkPlan — statuses', () => {
 				)
 			],
 			library
-		);
+		)[0]!;
 		expect(cell.status).toBe('modify');
 		expect(cell.modification).toBe('Small range, head supported No weight');
 		expect(cell.modifications.map((m) => m.text)).toEqual([
@@ -185,7 +185,11 @@ describe('checkPlan — statuses', () => {
 	});
 
 	it('blocks an exercise that is no longer in the library, not overridable', () => {
-		const [cell] = checkPlan({ items: [{ exerciseId: 'gone' }] }, [client('a', limits())], library);
+		const cell = checkPlan(
+			{ items: [{ exerciseId: 'gone' }] },
+			[client('a', limits())],
+			library
+		)[0]!;
 		expect(cell).toMatchObject({ status: 'blocked', overridable: false });
 	});
 });
@@ -325,11 +329,11 @@ describe('checkPlan — alternatives', () => {
 		const everything = Object.fromEntries(
 			MOVEMENT_CATEGORIES.map((c) => [c, { ...screeningHold, seeDoctorFirst: true }])
 		);
-		const [cell] = checkPlan(
+		const cell = checkPlan(
 			{ items: [{ exerciseId: 'curl-up' }] },
 			[client('a', limits(everything, { seeDoctorFirst: true }))],
 			library
-		);
+		)[0]!;
 		expect(cell.alternativeExerciseId).toBeUndefined();
 		expect(cell.alternativeNote).toMatch(/No exercise in the library is allowed/);
 	});

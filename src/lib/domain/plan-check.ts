@@ -127,7 +127,7 @@ export function judgeExercise(exercise: Exercise, client: ClientWithLimits): Ver
 				)
 				.join('; '),
 			source: unique(holds.map((h) => h.source)).join('; '),
-			by: (byClinician ?? holds[0]).by,
+			by: (byClinician ?? holds[0]!).by,
 			overridable: holds.every((h) => h.by !== 'clinician' && !h.seeDoctorFirst),
 			modifications: [],
 			holds
@@ -171,7 +171,7 @@ export function judgeExercise(exercise: Exercise, client: ClientWithLimits): Ver
 		status: 'ok',
 		reason: reason.charAt(0).toUpperCase() + reason.slice(1),
 		source: unique(categories.map((c) => limitOf(c).source)).join('; '),
-		by: cleared.length > 0 && undecided.length === 0 ? limitOf(cleared[0]).by : null,
+		by: cleared.length > 0 && undecided.length === 0 ? limitOf(cleared[0]!).by : null,
 		overridable: false,
 		modifications: [],
 		holds: []
@@ -277,7 +277,7 @@ export function checkPlan(
 	const cells: PlanCell[] = [];
 	plan.items.forEach((item, itemIndex) => {
 		clientsWithLimits.forEach((client, clientIndex) => {
-			const judge = judges[clientIndex];
+			const judge = judges[clientIndex]!;
 			const checkedId = item.swaps?.[client.clientId] ?? item.exerciseId;
 			const exercise = byId.get(checkedId);
 			if (!exercise) {
