@@ -11,3 +11,4 @@ export * from './trend';
 export * from './weeks';
 export * from './movement';
 export * from './limits';
+export * from './assessment';

@@ -65,7 +65,11 @@ export const SOURCES = {
 	noProvisionalLimit:
 		'Seamwell’s provisional rules hold nothing here (each rule names its own source); no clinician’s clearance yet',
 	keshwani2016:
-		'Keshwani N, Hills N, McLean L. Physiother Can 2016;68(3):223–229 — ultrasound inter-rater minimal detectable change 0.64–1.97 cm, depending on the point'
+		'Keshwani N, Hills N, McLean L. Physiother Can 2016;68(3):223–229 — ultrasound inter-rater minimal detectable change 0.64–1.97 cm, depending on the point; the per-point figures are not in our references, so the largest, 1.97 cm, is used at every point',
+	bursch1987:
+		'Bursch SG. Phys Ther 1987;67(7):1077–1079 — finger-width scores differ significantly between raters',
+	benjamin2020:
+		'Benjamin DR et al., Musculoskelet Sci Pract (2020, year from memory) — against ultrasound, finger width agrees only within 18 mm (calipers within 6 mm)'
 } as const;
 
 export type SourceKey = keyof typeof SOURCES;
