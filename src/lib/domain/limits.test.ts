@@ -115,6 +115,8 @@ describe('effectiveLimits — weeks after the birth, no clearance', () => {
 		expect(early.categories.front_loaded).toMatchObject({ by: 'record' });
 		expect(early.categories.front_loaded.reason).toContain('5 weeks after the birth');
 		expect(early.categories.front_loaded.source).toContain('secondary source');
+		// UK CMO 2019 — after childbirth, start gently
+		expect(early.categories.front_loaded.source).toContain('start gently');
 		expect(early.provisional).toBe(true);
 
 		const six = effectiveLimits(postpartum(), [], null, addDays(BIRTH, 42));

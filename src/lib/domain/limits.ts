@@ -234,7 +234,7 @@ function recordHolds(client: LimitsClient, today: string): { holds: Hold[]; prom
 		holds.push({
 			categories: ALL_BUT_DEEP_STABILITY,
 			reason: `${capitalise(weeksWords)}, under 6 weeks: everything except deep stabilisation waits until her postnatal check.`,
-			source: SOURCES.postnatalCheck,
+			source: `${SOURCES.postnatalCheck}; ${SOURCES.ucmo2019Postnatal}`,
 			by: 'record'
 		});
 	}
