@@ -18,6 +18,7 @@ import {
 	type Expected,
 	type Row
 } from './authorization-matrix';
+import { CLEARANCE_ROWS } from './matrix-rows/clearance';
 import { CLIENT_ROWS } from './matrix-rows/clients';
 import { DOCUMENT_ROWS } from './matrix-rows/documents';
 import { PLAN_ROWS } from './matrix-rows/plans';
@@ -29,6 +30,7 @@ const MATRIX: Row[] = [
 	...CLIENT_ROWS,
 	...REFERRAL_ROWS,
 	...DOCUMENT_ROWS,
+	...CLEARANCE_ROWS,
 	...PLAN_ROWS
 ];
 

@@ -1,4 +1,9 @@
-import type { ClearanceLevel, MovementCategory } from '$lib/domain/movement';
+import type {
+	CategoryLimits,
+	ClearanceLevel,
+	MovementCategory,
+	NewFinding
+} from '$lib/domain/movement';
 
 // Browser-safe shapes of assessments and clearances, shared by the API, the pages and the
 // server (the schema stores points and levels as these).
@@ -27,3 +32,32 @@ export interface AssessmentPoint {
 
 export type ClearanceLevels = Record<MovementCategory, ClearanceLevel>;
 export type ClearanceModifications = Partial<Record<MovementCategory, string>>;
+
+export interface ClearanceVersion {
+	id: string;
+	categories: ClearanceLevels;
+	modifications: ClearanceModifications;
+	notes: string | null;
+	reviewOn: string;
+	setBy: { id: string | null; name: string | null };
+	clinicId: string;
+	clinicName: string;
+	referralId: string | null;
+	setAt: string;
+	sharingEndedOn: string | null;
+	/** The version that replaced this one, if any. */
+	supersededBy: string | null;
+}
+
+export interface ClearanceView {
+	current: (ClearanceVersion & { reviewOverdue: boolean }) | null;
+	effective: CategoryLimits;
+	provisional: boolean;
+	seeDoctorFirst: boolean;
+	clearanceLapsed: boolean;
+	reviewOverdue: boolean;
+	newFindings: NewFinding[];
+	prompts: string[];
+	history: ClearanceVersion[];
+	viewer: 'studio' | 'client' | 'clinic';
+}

@@ -215,3 +215,21 @@ export async function readAssessments(
 		}));
 	});
 }
+
+/**
+ * Policy: mayReadAssessment (the clinic's physiotherapists). Audit: a refusal only. For the
+ * referral page's assessment and clearance forms: anyone else finds no such form (404) before
+ * her input is even read.
+ */
+export async function assertClinicForms(caller: Caller, referralId: string): Promise<void> {
+	const row = await referralRow(referralId);
+	if (!row || !mayReadAssessment(caller.actor, row)) {
+		return refuse(
+			caller,
+			'assessment.recorded',
+			notFound(),
+			{ type: 'referral', id: referralId },
+			row?.clientId
+		);
+	}
+}

@@ -1,8 +1,7 @@
 import { and, asc, desc, eq, inArray, ne } from 'drizzle-orm';
 import type { ClearanceData } from '$lib/clearance/schemas';
-import type { ClearanceLevels, ClearanceModifications } from '$lib/clearance/types';
+import type { ClearanceVersion, ClearanceView } from '$lib/clearance/types';
 import { effectiveLimits } from '../../domain/limits';
-import type { CategoryLimits, NewFinding } from '../../domain/movement';
 import { recordAccess } from '../audit';
 import { instructorStudioIds } from '../clients/policy';
 import { sharingState } from '../consents/grants';
@@ -31,34 +30,7 @@ import { clearanceViewer, clearingReferrals, type ClearanceViewer } from './poli
 
 type ClearanceRow = typeof clearances.$inferSelect;
 
-export interface ClearanceVersion {
-	id: string;
-	categories: ClearanceLevels;
-	modifications: ClearanceModifications;
-	notes: string | null;
-	reviewOn: string;
-	setBy: { id: string | null; name: string | null };
-	clinicId: string;
-	clinicName: string;
-	referralId: string | null;
-	setAt: string;
-	sharingEndedOn: string | null;
-	/** The version that replaced this one, if any. */
-	supersededBy: string | null;
-}
-
-export interface ClearanceView {
-	current: (ClearanceVersion & { reviewOverdue: boolean }) | null;
-	effective: CategoryLimits;
-	provisional: boolean;
-	seeDoctorFirst: boolean;
-	clearanceLapsed: boolean;
-	reviewOverdue: boolean;
-	newFindings: NewFinding[];
-	prompts: string[];
-	history: ClearanceVersion[];
-	viewer: ClearanceViewer['kind'];
-}
+export type { ClearanceVersion, ClearanceView };
 
 export const todayUtc = (now = new Date()) => now.toISOString().slice(0, 10);
 

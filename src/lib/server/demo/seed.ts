@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { memberships, organisations, users } from '../db/schema';
+import { seedDemoClearances } from './clearances';
 import { seedDemoClients } from './clients';
 import { seedDemoPlans } from './plans';
 import { seedDemoReferrals } from './referrals';
@@ -40,6 +41,7 @@ export async function seedDemo(database: Database): Promise<void> {
 		}
 		await seedDemoClients(tx, orgIds, userIdsByEmail);
 		await seedDemoReferrals(tx, orgIds, userIdsByEmail);
+		await seedDemoClearances(tx, orgIds, userIdsByEmail);
 		await seedDemoPlans(tx, orgIds, userIdsByEmail);
 	});
 }

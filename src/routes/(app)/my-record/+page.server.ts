@@ -1,3 +1,4 @@
+import { readClearance } from '$lib/server/clearance/clearance';
 import { getOwnRecord } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
@@ -5,5 +6,7 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	return forPage(getOwnRecord(caller));
+	const record = await forPage(getOwnRecord(caller));
+	const clearance = await forPage(readClearance(caller, record.client.id));
+	return { ...record, clearance };
 };

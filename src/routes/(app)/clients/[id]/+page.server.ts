@@ -12,6 +12,7 @@ import {
 	updateClient
 } from '$lib/server/clients/service';
 import { mayWriteClient } from '$lib/server/clients/policy';
+import { readClearance } from '$lib/server/clearance/clearance';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
@@ -21,6 +22,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const id = pageId(params.id);
 	const client = await forPage(getClient(caller, id));
 	const history = await forPage(getScreeningHistory(caller, id));
+	const clearance = await forPage(readClearance(caller, id));
 	const charts = SITES.map((site) => ({
 		site,
 		title: siteLabelCapitalised(site),
@@ -29,6 +31,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	return {
 		client,
 		history,
+		clearance,
 		charts,
 		mayWrite: mayWriteClient(caller.actor, client),
 		// Her own factor for the table's mm estimates (display only, never a criterion).
