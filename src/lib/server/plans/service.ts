@@ -68,6 +68,14 @@ async function refuseUse(caller: Caller, action: AuditAction): Promise<never> {
 	);
 }
 
+/**
+ * Policy: mayUsePlans. Audit: a refusal only. For form actions, which check policy before they
+ * read the form, so a person without access gets 404 rather than the form's 400.
+ */
+export async function assertMayPlan(caller: Caller): Promise<void> {
+	if (!mayUsePlans(caller.actor)) await refuse(caller, 'access.denied', notFound());
+}
+
 // ── Library ─────────────────────────────────────────────────────────────────────────────
 
 function customToExercise(row: typeof studioExercises.$inferSelect): Exercise {

@@ -2,6 +2,7 @@ import { readClearance } from '$lib/server/clearance/clearance';
 import { getOwnRecord } from '$lib/server/clients/service';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
+import { plansForMe } from '$lib/server/plans/service';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
