@@ -9,5 +9,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
 	const record = await forPage(getOwnRecord(caller));
 	const clearance = await forPage(readClearance(caller, record.client.id));
-	return { ...record, clearance };
+	// What her ready class plans change for her: her own swaps and modifications only.
+	const inClass = await forPage(plansForMe(caller));
+	return { ...record, clearance, inClass };
 };
