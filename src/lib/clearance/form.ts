@@ -45,9 +45,9 @@ function orNull(values: FormValues, key: string): string | null {
 	return str(values, key) || null;
 }
 
-/** A point row counts once anything beyond its preset position and method is filled in. */
+/** A point row counts once a width is filled in (its position and distance come preset). */
 function rowUsed(values: FormValues, i: number): boolean {
-	return ['distanceCm', 'restMm', 'curlUpMm'].some((f) => str(values, `p${i}.${f}`) !== '');
+	return ['restMm', 'curlUpMm'].some((f) => str(values, `p${i}.${f}`) !== '');
 }
 
 export function assessmentFromForm(form: FormData): FormResult<AssessmentData> & {
@@ -117,6 +117,10 @@ export function clearanceFromForm(
 			});
 	for (const category of MOVEMENT_CATEGORIES) {
 		if (!categories[category]) errors[`level.${category}`] ??= 'choose cleared, modify or hold';
+		// Said at once, even while another field keeps the schema from reaching this rule.
+		if (categories[category] === 'modify' && !modifications[category]) {
+			errors[`mod.${category}`] ??= 'write the modification for a category you marked modify';
+		}
 	}
 	if (hernia && hernia !== 'none' && str(values, 'confirmHernia') !== 'yes') {
 		for (const category of HERNIA_HOLDS) {

@@ -61,3 +61,14 @@ export interface ClearanceView {
 	history: ClearanceVersion[];
 	viewer: 'studio' | 'client' | 'clinic';
 }
+
+/** A clearance due for review within 14 days, or overdue, on a dashboard. */
+export interface ReviewItem {
+	clearanceId: string;
+	clientId: string;
+	clientName: string;
+	reviewOn: string;
+	overdue: boolean;
+	/** Where the person looks at it: the client page (studio) or the referral (clinic). */
+	href: string;
+}

@@ -92,7 +92,8 @@ export function screeningFromForm(form: FormData): FormResult<ScreeningInputData
 		takenAt: str(values, 'takenAt') || undefined,
 		sites,
 		redFlags: values.redFlags ?? [],
-		notes: str(values, 'notes')
+		notes: str(values, 'notes'),
+		medicalSignResolved: str(values, 'medicalSignResolved') === 'yes' ? true : null
 	});
 	if (!parsed.success) {
 		return { ok: false, values, errors: issuesToFormErrors(parsed.error.issues, screeningField) };

@@ -25,6 +25,21 @@ const NOBODY = { id: '00000000-0000-4000-8000-000000000000' };
 const forbiddenTo = (people: Person[]) => Object.fromEntries(people.map((p) => [p, 403]));
 
 export const CLEARANCE_ROWS: Row[] = [
+	// The referral page's assessment and clearance forms: the clinic's physiotherapist gets an
+	// empty form back (400); anyone else finds no such form (404).
+	{
+		route: '/(app)/referrals/[id]',
+		call: 'POST ?/assess',
+		sample: MAYA_REFERRAL,
+		expect: only(FERNBANK_PHYSIO, 400)
+	},
+	{
+		route: '/(app)/referrals/[id]',
+		call: 'POST ?/clear',
+		sample: MAYA_REFERRAL,
+		expect: only(FERNBANK_PHYSIO, 400)
+	},
+
 	// Reading a clearance: her studio, the clinic that set it, she herself; nobody else knows.
 	{
 		route: '/api/v1/clients/[id]/clearance',

@@ -1,4 +1,5 @@
 import { and, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
+import type { ReviewItem } from '$lib/clearance/types';
 import { recordAccess, systemContext } from '../audit';
 import { instructorStudioIds } from '../clients/policy';
 import { config } from '../config';
@@ -27,15 +28,7 @@ const addDays = (day: string, days: number) =>
 /** The newest clearance of each client: nothing supersedes it. */
 const isCurrent = sql`not exists (select 1 from ${clearances} as later where later.supersedes = ${clearances.id})`;
 
-export interface ReviewItem {
-	clearanceId: string;
-	clientId: string;
-	clientName: string;
-	reviewOn: string;
-	overdue: boolean;
-	/** Where the person looks at it: the client page (studio) or the referral (clinic). */
-	href: string;
-}
+export type { ReviewItem };
 
 /**
  * Policy: mayListReviews (instructors: their studios' clients; physiotherapists: current

@@ -1,6 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { clearanceSchema, reviewWindow } from '$lib/clearance/schemas';
+import { screeningInputSchema } from '$lib/clients/schemas';
+import { recordScreening } from '../clients/service';
 import { withdrawConsent } from '../consents/service';
 import { config } from '../config';
 import { createDatabase, db } from '../db';
@@ -289,5 +291,39 @@ describe('review dates', () => {
 		).toBeUndefined();
 		const view = await readClearance(instructor.caller, client.clientId);
 		expect(view.reviewOverdue).toBe(true);
+	});
+});
+
+describe('a sign that sends her to a doctor', () => {
+	it('holds everything until a later screening records she was seen and the sign has gone', async () => {
+		const client = await makeClient(studio);
+		const sites = {
+			above_navel: { widthFingers: 1, depth: 'shallow', tension: 'firm', doming: false },
+			at_navel: { widthFingers: 1.5, depth: 'shallow', tension: 'firm', doming: false },
+			below_navel: { widthFingers: 1, depth: 'shallow', tension: 'firm', doming: false }
+		} as const;
+		const input = (takenAt: Date, redFlags: 'late_bleeding'[], resolved: boolean | null) =>
+			screeningInputSchema.parse({
+				takenAt: takenAt.toISOString(),
+				sites,
+				redFlags,
+				medicalSignResolved: resolved
+			});
+		await recordScreening(
+			instructor.caller,
+			client.clientId,
+			input(new Date(Date.now() - 3 * 86_400_000), ['late_bleeding'], null)
+		);
+		const held = await readClearance(instructor.caller, client.clientId);
+		expect(held.seeDoctorFirst).toBe(true);
+		expect(held.effective.deep_stability.level).toBe('hold');
+		await recordScreening(
+			instructor.caller,
+			client.clientId,
+			input(new Date(Date.now() - 86_400_000), [], true)
+		);
+		const lifted = await readClearance(instructor.caller, client.clientId);
+		expect(lifted.seeDoctorFirst).toBe(false);
+		expect(lifted.effective.deep_stability.level).not.toBe('hold');
 	});
 });

@@ -472,7 +472,12 @@ export async function recordScreening(
 	return db().transaction(async (tx) => {
 		const [row] = await tx
 			.insert(screenings)
-			.values({ clientId, recordedBy: caller.actor.userId, ...record })
+			.values({
+				clientId,
+				recordedBy: caller.actor.userId,
+				...record,
+				medicalSignResolved: input.medicalSignResolved ?? null
+			})
 			.returning({ id: screenings.id });
 		await refreshLastScreening(tx, clientId);
 		await recordAccess(tx, caller.access, {
