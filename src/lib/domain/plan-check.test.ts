@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { SHIPPED_EXERCISES, type Exercise } from './exercises/exercise';
+import { effectiveLimits } from './limits';
 import {
 	MOVEMENT_CATEGORIES,
 	type CategoryLimit,
@@ -336,6 +337,31 @@ describe('checkPlan — alternatives', () => {
 		)[0]!;
 		expect(cell.alternativeExerciseId).toBeUndefined();
 		expect(cell.alternativeNote).toMatch(/No exercise in the library is allowed/);
+	});
+});
+
+describe('checkPlan — the provisional rules reach the check', () => {
+	it('8 weeks after a vaginal birth, impact is held by the studio’s rule: blocked, overridable', () => {
+		// Goom T, Donnelly G, Brockwell E. Returning to running postnatal, 2019 — impact waits
+		// until 12 weeks after the birth
+		const limits = effectiveLimits(
+			{
+				stage: 'postpartum',
+				dueDate: null,
+				birthDate: '2026-01-01',
+				delivery: 'vaginal',
+				postnatalCheckOn: '2026-02-12',
+				postnatalCleared: true
+			},
+			[],
+			null,
+			'2026-02-26'
+		);
+		const jog = judgeExercise(ex('jog-on-the-spot'), client('a', limits));
+		expect(jog).toMatchObject({ status: 'blocked', overridable: true });
+		expect(jog.holds.map((h) => h.category)).toEqual(['impact']);
+		expect(jog.source).toContain('Goom');
+		expect(judgeExercise(ex('heel-slides'), client('a', limits)).status).toBe('ok');
 	});
 });
 
