@@ -87,8 +87,11 @@ test('a clinician’s hold blocks the curl-up for one client; swap for her only;
 	await page.getByRole('button', { name: 'Add Heel slides' }).click();
 	await expect(page.getByRole('rowheader', { name: /2\. Heel slides/ })).toBeVisible();
 
-	// Keyboard-only reorder: focus "move up" on heel slides and press Enter.
-	await page.getByRole('button', { name: 'Move Heel slides up' }).focus();
+	// Keyboard-only reorder: focus "move up" on heel slides and press Enter (once the save and
+	// the fresh check have finished, the button is enabled again).
+	const moveUp = page.getByRole('button', { name: 'Move Heel slides up' });
+	await expect(moveUp).toBeEnabled();
+	await moveUp.focus();
 	await page.keyboard.press('Enter');
 	await expect(page.getByRole('rowheader', { name: /1\. Heel slides/ })).toBeVisible();
 	await expect(page.getByRole('rowheader', { name: /2\. Curl-up/ })).toBeVisible();
