@@ -102,15 +102,14 @@ export async function loadEffectiveLimits(
 	const ids = [...new Set(clientIds)];
 	const result = new Map<string, EffectiveLimits>();
 	if (ids.length === 0) return result;
-	const [records, history, current] = await Promise.all([
-		tx.select().from(clients).where(inArray(clients.id, ids)),
-		tx
-			.select()
-			.from(screenings)
-			.where(inArray(screenings.clientId, ids))
-			.orderBy(asc(screenings.takenAt), asc(screenings.id)),
-		currentClearances(tx, ids)
-	]);
+	// One after the other: a transaction is one connection, which runs one query at a time.
+	const records = await tx.select().from(clients).where(inArray(clients.id, ids));
+	const history = await tx
+		.select()
+		.from(screenings)
+		.where(inArray(screenings.clientId, ids))
+		.orderBy(asc(screenings.takenAt), asc(screenings.id));
+	const current = await currentClearances(tx, ids);
 	const byClient = new Map<string, LimitsScreening[]>();
 	for (const row of history) {
 		const list = byClient.get(row.clientId) ?? [];
