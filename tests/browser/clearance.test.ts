@@ -92,13 +92,19 @@ test('physio assesses and clears; the instructor sees the card; the client reads
 		'Impact',
 		'Deep stabilisation'
 	]) {
-		await physio.getByRole('group', { name: label, exact: true }).getByLabel('Cleared').check();
+		await physio
+			.getByRole('group', { name: label, exact: true })
+			.getByRole('radio', { name: 'Cleared', exact: true })
+			.check();
 	}
-	await physio.getByRole('group', { name: 'Loaded spinal flexion' }).getByLabel('Hold').check();
+	await physio
+		.getByRole('group', { name: 'Loaded spinal flexion' })
+		.getByRole('radio', { name: 'Hold', exact: true })
+		.check();
 	const front = physio.getByRole('group', {
 		name: 'Front-loaded plank and four-point weight bearing'
 	});
-	await front.getByLabel('Modify').check();
+	await front.getByRole('radio', { name: 'Modify', exact: true }).check();
 	await physio
 		.getByLabel('Review on')
 		.fill(new Date(Date.now() + 42 * 86_400_000).toISOString().slice(0, 10));
