@@ -18,12 +18,21 @@ import {
 	type Expected,
 	type Row
 } from './authorization-matrix';
+import { CLEARANCE_ROWS } from './matrix-rows/clearance';
 import { CLIENT_ROWS } from './matrix-rows/clients';
 import { DOCUMENT_ROWS } from './matrix-rows/documents';
+import { PLAN_ROWS } from './matrix-rows/plans';
 import { REFERRAL_ROWS } from './matrix-rows/referrals';
 
 // The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
-const MATRIX: Row[] = [...CORE_ROWS, ...CLIENT_ROWS, ...REFERRAL_ROWS, ...DOCUMENT_ROWS];
+const MATRIX: Row[] = [
+	...CORE_ROWS,
+	...CLIENT_ROWS,
+	...REFERRAL_ROWS,
+	...DOCUMENT_ROWS,
+	...CLEARANCE_ROWS,
+	...PLAN_ROWS
+];
 
 const ROUTES = 'src/routes';
 
@@ -101,7 +110,9 @@ async function resolveSamples(rows: Row[]): Promise<void> {
 					where c.name = ${name} limit 1`,
 				// A demo document, by its file name (see src/lib/server/demo/documents.ts).
 				document: sql`select id from documents where file_name = ${name}
-					order by uploaded_at limit 1`
+					order by uploaded_at limit 1`,
+				// A demo session plan, by its title (see src/lib/server/demo/plans.ts).
+				plan: sql`select id from plans where title = ${name} limit 1`
 			};
 			const lookup = lookups[kind!];
 			if (!lookup) throw new Error(`unknown sample kind ${kind}`);

@@ -117,7 +117,8 @@ export function screeningFromForm(form: FormData): FormResult<ScreeningInputData
 		takenAt: textOf(values, 'takenAt') || undefined,
 		sites,
 		redFlags: values.redFlags,
-		notes: textOf(values, 'notes')
+		notes: textOf(values, 'notes'),
+		medicalSignResolved: textOf(values, 'medicalSignResolved') === 'yes' ? true : null
 	};
 	return parseForm(screeningInputSchema, body, values, {
 		rename: screeningField,

@@ -139,7 +139,16 @@ export const screeningInputSchema = z.object({
 		.max(RED_FLAGS.length)
 		.default([])
 		.transform((flags) => [...new Set(flags)]),
-	notes: optionalText(4000)
+	notes: optionalText(4000),
+	/**
+	 * She has been seen by her doctor or midwife for an earlier warning sign, and it has gone.
+	 * Asked only when an earlier screening had a sign that refers to a doctor.
+	 */
+	medicalSignResolved: z
+		.boolean({ error: 'must be true or false' })
+		.nullable()
+		.optional()
+		.transform((v) => v ?? null)
 });
 export type ScreeningInputData = z.infer<typeof screeningInputSchema>;
 

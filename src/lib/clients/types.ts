@@ -1,3 +1,4 @@
+import type { ClearanceStatus } from '$lib/clearance/words';
 import type {
 	ChartPoint,
 	EarlyScreenWarning,
@@ -18,6 +19,8 @@ export interface ClientSummary {
 	stage: 'pregnant' | 'postpartum';
 	lastScreenedAt: string | null;
 	lastOutcome: Outcome | null;
+	/** The list badge: her clearance, or the studio's provisional limits (lists only). */
+	clearanceStatus?: ClearanceStatus;
 }
 
 export interface ClientDetail extends ClientSummary {

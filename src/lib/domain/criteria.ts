@@ -17,6 +17,13 @@ export type MeasuredModality = Exclude<Modality, 'palpation'>;
 export type CriterionSite = Site | 'any' | 'xiphoid' | 'unstated';
 
 /**
+ * Whether a width was taken with the abdomen relaxed (`rest`) or during a curl-up (head and
+ * shoulders lifted on an exhale). A width is only ever compared with a criterion of its own state.
+ */
+export const MEASUREMENT_STATES = ['rest', 'curl_up'] as const;
+export type MeasurementState = (typeof MEASUREMENT_STATES)[number];
+
+/**
  * How sure we are of a value: read in the source (`verified`), only seen in a secondary
  * source (`secondary`), or recalled (`memory`).
  */
@@ -31,6 +38,15 @@ export interface Criterion {
 	site: CriterionSite;
 	/** Distance from the navel in cm for `above_navel` / `below_navel`; 0 at the navel; else null. */
 	distanceCm: number | null;
+	/** Rest or curl-up, as the source measured it. */
+	state: MeasurementState;
+	/** How sure we are of `state`: our references do not always say in which state a width was taken. */
+	stateStatus: CriterionStatus;
+	/**
+	 * The value as our references give it is doubtful (see `note`): it is kept for reference and
+	 * left out of the physiotherapist's comparisons.
+	 */
+	doubtful?: boolean;
 	/** A single method, or either measured method where the source defines width without one. */
 	modality: Modality | 'caliper_or_ultrasound';
 	/** The operator a width is judged by: past the criterion when `width <comparison> value`. */
@@ -61,6 +77,8 @@ export const SPERSTAD_FINGER_WIDTH: Criterion = {
 	unit: 'finger_widths',
 	site: 'any',
 	distanceCm: null,
+	state: 'curl_up',
+	stateStatus: 'verified',
 	modality: 'palpation',
 	comparison: 'gte',
 	inclusive: true,
@@ -82,6 +100,9 @@ export const BEER_XIPHOID: Criterion = {
 	unit: 'mm',
 	site: 'xiphoid',
 	distanceCm: null,
+	// At rest, recalled from the paper's method (its abstract does not say): from memory.
+	state: 'rest',
+	stateStatus: 'memory',
 	modality: 'ultrasound',
 	comparison: 'gt',
 	inclusive: false,
@@ -118,6 +139,9 @@ export const EHS_2021: Criterion = {
 	unit: 'mm',
 	site: 'any',
 	distanceCm: null,
+	// The guideline's width is read at rest (from memory; our references do not say).
+	state: 'rest',
+	stateStatus: 'memory',
 	// The guideline defines diastasis by width alone; either measured method may be compared.
 	modality: 'caliper_or_ultrasound',
 	comparison: 'gt',
@@ -137,6 +161,9 @@ export const MOTA_BELOW_2CM: Criterion = {
 	unit: 'mm',
 	site: 'below_navel',
 	distanceCm: 2,
+	// At rest (from memory; our references do not say).
+	state: 'rest',
+	stateStatus: 'memory',
 	modality: 'ultrasound',
 	comparison: 'gt',
 	inclusive: false,
@@ -158,6 +185,9 @@ export const QU_ABOVE_3CM: Criterion = {
 	unit: 'mm',
 	site: 'above_navel',
 	distanceCm: 3,
+	// At rest (from memory; our references do not say).
+	state: 'rest',
+	stateStatus: 'memory',
 	modality: 'ultrasound',
 	comparison: 'gt',
 	inclusive: false,
@@ -185,6 +215,7 @@ export const QU_BELOW_3CM: Criterion = {
 	value: 2,
 	site: 'below_navel',
 	distanceCm: 3,
+	doubtful: true,
 	note: 'Value as given in our references (> 2 mm); it is far below the other limits, so check the original before relying on it. Publication year from memory.'
 };
 
@@ -195,6 +226,9 @@ export const HILLS_2018: Criterion = {
 	unit: 'mm',
 	site: 'unstated',
 	distanceCm: null,
+	// At rest (from memory); the site is unstated, so it never matches anyway.
+	state: 'rest',
+	stateStatus: 'memory',
 	modality: 'ultrasound',
 	comparison: 'gte',
 	inclusive: true,

@@ -10,3 +10,5 @@ export * from './stage';
 export * from './trend';
 export * from './weeks';
 export * from './movement';
+export * from './limits';
+export * from './assessment';

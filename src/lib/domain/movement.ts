@@ -131,6 +131,8 @@ export interface NewFinding {
 	site?: Site;
 	flag?: RedFlag;
 	detail: string;
+	/** The categories this finding puts back on hold over the clearance. */
+	holds?: MovementCategory[];
 }
 
 export interface EffectiveLimits {

@@ -31,7 +31,17 @@ export const PREGNANCY_WARNING_SIGNS = [
 	'muscle_weakness'
 ] as const;
 
-export const RED_FLAGS = [...SYMPTOM_RED_FLAGS, ...PREGNANCY_WARNING_SIGNS] as const;
+/**
+ * Signs at a caesarean wound that send her to a doctor (common practice, from memory — not
+ * verified). Codes are our own.
+ */
+export const CAESAREAN_SCAR_SIGNS = ['scar_pain', 'scar_bulge', 'wound_infection'] as const;
+
+export const RED_FLAGS = [
+	...SYMPTOM_RED_FLAGS,
+	...PREGNANCY_WARNING_SIGNS,
+	...CAESAREAN_SCAR_SIGNS
+] as const;
 export type RedFlag = (typeof RED_FLAGS)[number];
 
 export const RED_FLAG_LABELS: Record<RedFlag, string> = {
@@ -50,7 +60,10 @@ export const RED_FLAG_LABELS: Record<RedFlag, string> = {
 	breathless_before_effort: 'Short of breath before any effort',
 	headache: 'Headache',
 	calf_pain_swelling: 'Calf pain or swelling',
-	muscle_weakness: 'Muscle weakness affecting balance'
+	muscle_weakness: 'Muscle weakness affecting balance',
+	scar_pain: 'Pain at the caesarean scar',
+	scar_bulge: 'A bulge or lump at the caesarean scar',
+	wound_infection: 'Signs of wound infection: redness, heat, discharge or fever'
 };
 
 const BOTH: readonly Stage[] = ['pregnant', 'postpartum'];
@@ -76,7 +89,10 @@ export const RED_FLAG_STAGES: Record<RedFlag, readonly Stage[]> = {
 	breathless_before_effort: ['pregnant'],
 	headache: ['pregnant'],
 	calf_pain_swelling: ['pregnant'],
-	muscle_weakness: ['pregnant']
+	muscle_weakness: ['pregnant'],
+	scar_pain: ['postpartum'],
+	scar_bulge: ['postpartum'],
+	wound_infection: ['postpartum']
 };
 
 export function redFlagsForStage(stage: Stage): RedFlag[] {
@@ -86,8 +102,8 @@ export function redFlagsForStage(stage: Stage): RedFlag[] {
 export type ReferTo = 'physio' | 'medical';
 
 /**
- * Whom each flag sends the client to on its own. Bleeding late after the birth and every
- * pregnancy warning sign go to a doctor; the rest are a pelvic-health physiotherapist's work.
+ * Whom each flag sends the client to on its own. Bleeding late after the birth, every
+ * pregnancy warning sign and every caesarean scar sign go to a doctor; the rest are a pelvic-health physiotherapist's work.
  * A midline bulge goes to a doctor when it hurts (see PAIN_FLAGS and classifyScreening).
  */
 export const RED_FLAG_REFER_TO: Record<RedFlag, ReferTo> = {
@@ -106,7 +122,10 @@ export const RED_FLAG_REFER_TO: Record<RedFlag, ReferTo> = {
 	breathless_before_effort: 'medical',
 	headache: 'medical',
 	calf_pain_swelling: 'medical',
-	muscle_weakness: 'medical'
+	muscle_weakness: 'medical',
+	scar_pain: 'medical',
+	scar_bulge: 'medical',
+	wound_infection: 'medical'
 };
 
 /** Flags that make a midline bulge count as painful. */
@@ -128,7 +147,10 @@ export const RED_FLAG_SOURCES: Record<RedFlag, string> = {
 	breathless_before_effort: SOURCES.acog804,
 	headache: SOURCES.acog804,
 	calf_pain_swelling: SOURCES.acog804,
-	muscle_weakness: SOURCES.acog804
+	muscle_weakness: SOURCES.acog804,
+	scar_pain: SOURCES.caesareanScarSigns,
+	scar_bulge: SOURCES.caesareanScarSigns,
+	wound_infection: SOURCES.caesareanScarSigns
 };
 
 export function isRedFlag(value: string): value is RedFlag {
@@ -137,4 +159,8 @@ export function isRedFlag(value: string): value is RedFlag {
 
 export function isPregnancyWarningSign(flag: RedFlag): boolean {
 	return (PREGNANCY_WARNING_SIGNS as readonly RedFlag[]).includes(flag);
+}
+
+export function isCaesareanScarSign(flag: RedFlag): boolean {
+	return (CAESAREAN_SCAR_SIGNS as readonly RedFlag[]).includes(flag);
 }

@@ -45,7 +45,31 @@ export const SOURCES = {
 	fingerWidthEstimate:
 		'Rett MT et al. Rev Bras Fisioter 2009;13(4); Pitangui ACR et al., ABCS Health Sciences — one finger width ≈ 1.5 cm (approximate)',
 	trendStepPractice:
-		'Trade practice: a change of at most half a finger width (the test’s own step) is steady (no published source)'
+		'Trade practice: a change of at most half a finger width (the test’s own step) is steady (no published source)',
+	goom2019Running:
+		'Goom T, Donnelly G, Brockwell E. Returning to running postnatal, 2019 — return to running not before 3 months (12 weeks) after the birth',
+	heavinessPractice:
+		'Common practice, in line with Goom T et al. 2019: pelvic heaviness or leakage holds high-pressure effort and impact until a physiotherapist has assessed (no published source for the hold)',
+	flexionPractice:
+		'Common practice: avoid repeated loaded forward flexion and long-lever abdominal load while a gap is healing, and favour stabilisation work (no published source)',
+	pregnancyLoadPractice:
+		'Common practice: in pregnancy, doming or a deep gap holds loaded flexion and long-lever load (no published source); width alone holds nothing, as separation is expected late in pregnancy (Mota P et al. Man Ther 2015;20(1):200–205)',
+	ucmo2019Postnatal:
+		'UK Chief Medical Officers’ Physical Activity Guidelines 2019 — after childbirth, start gently and build up to 150 minutes a week of moderate activity',
+	caesareanPractice:
+		'Common practice, from memory (not verified): after a caesarean, hold loaded flexion, long-lever and high-pressure work until about 12 weeks',
+	caesareanScarSigns:
+		'Common practice, from memory (not verified): after a caesarean, scar pain, a bulge at the scar or signs of wound infection are red flags for a doctor',
+	niceCg37:
+		'NICE CG37 Postnatal care, table 5-1 — signs after the birth that need emergency care (heavy bleeding, chest pain or breathlessness, signs of infection, calf pain or swelling, severe headache)',
+	noProvisionalLimit:
+		'Seamwell’s provisional rules hold nothing here (each rule names its own source); no clinician’s clearance yet',
+	keshwani2016:
+		'Keshwani N, Hills N, McLean L. Physiother Can 2016;68(3):223–229 — ultrasound inter-rater minimal detectable change 0.64–1.97 cm, depending on the point; the per-point figures are not in our references, so the largest, 1.97 cm, is used at every point',
+	bursch1987:
+		'Bursch SG. Phys Ther 1987;67(7):1077–1079 — finger-width scores differ significantly between raters',
+	benjamin2020:
+		'Benjamin DR et al., Musculoskelet Sci Pract (2020, year from memory) — against ultrasound, finger width agrees only within 18 mm (calipers within 6 mm)'
 } as const;
 
 export type SourceKey = keyof typeof SOURCES;

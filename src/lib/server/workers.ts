@@ -1,4 +1,5 @@
 import { startSealer } from './audit/sealer';
+import { startReviewReminders } from './clearance/reviews';
 import { db } from './db';
 import { startDocumentSweeper } from './documents/sweeper';
 import { startOutboxWorker } from './mail/worker';
@@ -9,8 +10,9 @@ let running: (() => Promise<void>) | undefined;
  * Starts the background work of one app process: the mail outbox worker, the access log's
  * sealer and the sweeper of orphaned document objects. Several processes may each run them:
  * the outbox claims rows with FOR UPDATE SKIP LOCKED and the sealer is elected by an advisory
- * lock. None throws when the database, S3 or the SMTP server is down; they log and try again. Returns a function that
- * stops them all and resolves once their work in progress has finished.
+ * lock; review reminders are claimed row by row. None throws when the database, S3 or the
+ * SMTP server is down; they log and try again. Returns a function that stops them all and
+ * resolves once their work in progress has finished.
  */
 export function startBackgroundWorkers(): () => Promise<void> {
 	// Started once per process, even if the init hook runs again (dev server reloads).
@@ -20,11 +22,15 @@ export function startBackgroundWorkers(): () => Promise<void> {
 	const sealer = startSealer(database);
 	// Deleting an orphan twice is harmless, so several processes may sweep side by side.
 	const sweeper = startDocumentSweeper(database);
+	// Each reminder is claimed by an UPDATE … WHERE reminder_sent_at IS NULL: sent once.
+	const reminders = startReviewReminders(database);
 	let stopping: Promise<void> | undefined;
 	const stop = () => {
-		stopping ??= Promise.all([outbox.stop(), sealer.stop(), sweeper.stop()]).then(() => {
-			running = undefined;
-		});
+		stopping ??= Promise.all([outbox.stop(), sealer.stop(), sweeper.stop(), reminders.stop()]).then(
+			() => {
+				running = undefined;
+			}
+		);
 		return stopping;
 	};
 	running = stop;

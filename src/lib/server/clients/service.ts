@@ -1,3 +1,5 @@
+import { clearanceStatus } from '$lib/clearance/words';
+import { loadEffectiveLimits } from '../clearance/limits';
 import { and, asc, desc, eq, ilike, isNull, lt, or, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import {
@@ -293,7 +295,24 @@ export async function listClients(
 				clientId: row.id
 			}))
 		);
-		return { items: page.items.map(toSummary), nextCursor: page.nextCursor };
+		// One batched load for the page's badges (see clearance/limits.ts).
+		const limits = await loadEffectiveLimits(
+			tx,
+			page.items.map((row) => row.id),
+			new Date().toISOString().slice(0, 10)
+		);
+		return {
+			items: page.items.map((row) => {
+				const found = limits.get(row.id);
+				return {
+					...toSummary(row),
+					...(found
+						? { clearanceStatus: clearanceStatus({ ...found, effective: found.categories }) }
+						: {})
+				};
+			}),
+			nextCursor: page.nextCursor
+		};
 	});
 }
 
@@ -468,7 +487,12 @@ export async function recordScreening(
 	return db().transaction(async (tx) => {
 		const [row] = await tx
 			.insert(screenings)
-			.values({ clientId, recordedBy: caller.actor.userId, ...record })
+			.values({
+				clientId,
+				recordedBy: caller.actor.userId,
+				...record,
+				medicalSignResolved: input.medicalSignResolved ?? null
+			})
 			.returning({ id: screenings.id });
 		await refreshLastScreening(tx, clientId);
 		await recordAccess(tx, caller.access, {

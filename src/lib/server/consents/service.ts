@@ -26,6 +26,7 @@ import { fieldProblem, notFound, ProblemError } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
 import { queueNotification } from '../mail/outbox';
 import { instructorRecipient } from '../referrals/notify';
+import { markClearancesSharingEnded } from '../clearance/sharing-ended';
 import { withdrawOpenReferrals } from '../referrals/sharing-ended';
 import {
 	adminOrganisationIds,
@@ -448,11 +449,9 @@ export async function withdrawConsent(
 			target: { type: 'consent', id },
 			clientId: grant.clientId
 		});
-		const withdrawn = await withdrawOpenReferrals(tx, caller, {
-			clientId: grant.clientId,
-			studioId: grant.studioId,
-			clinicId: grant.clinicId
-		});
+		const pair = { clientId: grant.clientId, studioId: grant.studioId, clinicId: grant.clinicId };
+		const withdrawn = await withdrawOpenReferrals(tx, caller, pair);
+		await markClearancesSharingEnded(tx, pair, now);
 		return { id, withdrawnAt: now.toISOString(), referralsWithdrawn: withdrawn };
 	});
 }

@@ -1,7 +1,9 @@
 import { sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { memberships, organisations, users } from '../db/schema';
+import { seedDemoClearances } from './clearances';
 import { seedDemoClients } from './clients';
+import { seedDemoPlans } from './plans';
 import { seedDemoReferrals } from './referrals';
 import { demoOrganisations, demoPeople, type DemoOrganisationKey } from './scenario';
 
@@ -39,6 +41,8 @@ export async function seedDemo(database: Database): Promise<void> {
 		}
 		await seedDemoClients(tx, orgIds, userIdsByEmail);
 		await seedDemoReferrals(tx, orgIds, userIdsByEmail);
+		await seedDemoClearances(tx, orgIds, userIdsByEmail);
+		await seedDemoPlans(tx, orgIds, userIdsByEmail);
 	});
 }
 

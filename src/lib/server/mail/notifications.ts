@@ -40,6 +40,18 @@ export const NOTIFICATION_WORDS = {
 		subject: 'Your studio asks before sharing your record',
 		line: 'Your studio would like to share your record with a clinic, and asks for your consent first.'
 	},
+	'clearance.set': {
+		subject: 'A physiotherapist set a clearance for one of your clients',
+		line: 'A physiotherapist has set what one of your clients may do in class. Sign in to read it before you plan her sessions.'
+	},
+	'clearance.review_due': {
+		subject: 'A clearance is due for review in a week',
+		line: 'A movement clearance you follow reaches its review date in a week. Sign in to see it.'
+	},
+	'clearance.review_requested': {
+		subject: 'A studio asks you to review a clearance',
+		line: 'An instructor asks you to look again at a clearance you set. Sign in to see her question.'
+	},
 	'consent.given': {
 		subject: 'A client gave consent to share — you can now send the referral',
 		line: 'A client has given her consent to share with a clinic. Sign in to send her referral.'

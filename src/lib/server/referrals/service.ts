@@ -733,7 +733,13 @@ function invalidTransition(from: ReferralState, to: ReferralState, raced = false
 	});
 }
 
-async function applyTransition(
+/**
+ * Applies an allowed move inside the caller's transaction: consent read fresh and held, the
+ * state guarded, the event, the access-log row and the hand-off mail. Not caller-facing: the
+ * calling service has decided the move with decideTransition (the assessment service moves
+ * accepted → assessed with the findings it records).
+ */
+export async function applyTransition(
 	tx: Executor,
 	caller: Caller,
 	row: ReferralRow,

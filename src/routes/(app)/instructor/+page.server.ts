@@ -1,3 +1,4 @@
+import { listClearanceReviews } from '$lib/server/clearance/reviews';
 import { requirePageCaller } from '$lib/server/context';
 import { countClients } from '$lib/server/clients/service';
 import { forPage } from '$lib/server/http/page';
@@ -9,8 +10,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
 	// The area first: someone who is no instructor gets the 404 before anything is counted.
 	const summary = await forPage(summariseArea(caller, 'instructor'));
-	const [clients, referrals] = await forPage(
-		Promise.all([countClients(caller), countReferrals(caller)])
+	const [clients, referrals, reviews] = await forPage(
+		Promise.all([countClients(caller), countReferrals(caller), listClearanceReviews(caller)])
 	);
-	return { summary, clients, referrals, recentDays: RECENT_ANSWER_DAYS };
+	return { summary, clients, referrals, reviews, recentDays: RECENT_ANSWER_DAYS };
 };

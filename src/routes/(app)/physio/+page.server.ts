@@ -1,3 +1,4 @@
+import { listClearanceReviews } from '$lib/server/clearance/reviews';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
 import { summariseArea } from '$lib/server/people/service';
@@ -8,6 +9,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
 	// The area first: someone who is no physiotherapist gets the 404 before anything is counted.
 	const summary = await forPage(summariseArea(caller, 'physiotherapist'));
-	const referrals = await forPage(countReferrals(caller));
-	return { summary, referrals };
+	const [referrals, reviews] = await forPage(
+		Promise.all([countReferrals(caller), listClearanceReviews(caller)])
+	);
+	return { summary, referrals, reviews };
 };

@@ -115,6 +115,11 @@ export const screenings = pgTable(
 		reasons: jsonb('reasons').$type<StoredReason[]>().notNull(),
 		warnings: jsonb('warnings').$type<EarlyScreenWarning[]>().notNull(),
 		rulesVersion: text('rules_version').notNull(),
+		/**
+		 * She has been seen by her doctor or midwife for an earlier warning sign, and it has
+		 * gone (asked only when an earlier screening had a sign that refers to a doctor).
+		 */
+		medicalSignResolved: boolean('medical_sign_resolved'),
 		createdAt: timestamp('created_at', tz).notNull().defaultNow()
 	},
 	(t) => [index('screenings_client_taken_idx').on(t.clientId, t.takenAt)]

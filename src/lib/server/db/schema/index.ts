@@ -5,3 +5,5 @@ export * from './outbox';
 export * from './clients';
 export * from './sharing';
 export * from './documents';
+export * from './clearance';
+export * from './plans';

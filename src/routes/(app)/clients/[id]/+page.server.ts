@@ -12,6 +12,7 @@ import {
 } from '$lib/server/clients/service';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { listClientReferrals } from '$lib/server/referrals/for-client';
+import { readClearance } from '$lib/server/clearance/clearance';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
 import type { Actions, PageServerLoad } from './$types';
@@ -20,9 +21,10 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
 	const id = pageId(params.id);
 	const client = await forPage(getClient(caller, id));
-	const [history, referrals] = await Promise.all([
+	const [history, referrals, clearance] = await Promise.all([
 		forPage(getScreeningHistory(caller, id)),
-		forPage(listClientReferrals(caller, id))
+		forPage(listClientReferrals(caller, id)),
+		forPage(readClearance(caller, id))
 	]);
 	const charts = SITES.map((site) => ({
 		site,
@@ -33,6 +35,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		client,
 		history,
 		referrals,
+		clearance,
 		charts,
 		combined: combinedChartGeometry(history.series),
 		mayWrite: mayWriteClient(caller.actor, client),

@@ -14,6 +14,14 @@ import { documentPatchSchema, readUploadForm } from '$lib/server/documents/schem
 import { getDocumentPanel, updateDocument, uploadDocument } from '$lib/server/documents/service';
 import { ProblemError } from '$lib/server/http/problem';
 import { getReferral, listLiveScreenings, transitionReferral } from '$lib/server/referrals/service';
+import { assessmentFromForm, clearanceFromForm } from '$lib/clearance/form';
+import {
+	assertClinicForms,
+	readAssessment,
+	recordAssessment
+} from '$lib/server/clearance/assessment';
+import { readClearance, setClearance } from '$lib/server/clearance/clearance';
+import { ASSESSABLE_STATES } from '$lib/server/clearance/policy';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The document panel's forms answer under this name. */
@@ -32,10 +40,78 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const series = chartSeries(live ?? referral.screenings);
 	const charts = SITES.map((site) => ({ site, chart: siteChartGeometry(series[site]) }));
 	const documents = await getDocumentPanel(caller, id);
-	return { referral, live, charts, documents };
+	// The clinic's own findings and the client's clearance, for the clinic's physiotherapists.
+	const clinicSide = referral.viewer === 'clinic' && referral.state !== 'draft';
+	const [assessment, clearance] = clinicSide
+		? await Promise.all([
+				readAssessment(caller, id),
+				forPage(readClearance(caller, referral.clientId))
+			])
+		: [null, null];
+	const assigned = referral.physioId === caller.actor.userId;
+	const mayAct = clinicSide && assigned && ASSESSABLE_STATES.includes(referral.state);
+	return {
+		referral,
+		live,
+		charts,
+		documents,
+		assessment,
+		clearance,
+		mayAssess: mayAct && referral.sharing.status === 'active',
+		mayClear: mayAct
+	};
 };
 
 export const actions: Actions = {
+	assess: async ({ locals, url, params, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const id = pageId(params.id);
+		await forPage(assertClinicForms(caller, id));
+		const parsed = assessmentFromForm(await request.formData());
+		if (!parsed.ok) {
+			return fail(400, { assessment: { values: parsed.values, errors: parsed.errors } });
+		}
+		try {
+			await recordAssessment(caller, id, parsed.data);
+			return { assessed: true };
+		} catch (caught) {
+			const failed = failFromProblem(caught, parsed.values);
+			return fail(failed.status, { assessment: failed.data });
+		}
+	},
+	clear: async ({ locals, url, params, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const id = pageId(params.id);
+		await forPage(assertClinicForms(caller, id));
+		const form = await request.formData();
+		// The hernia finding the form asked her to confirm against: the latest one she recorded.
+		const hernia = await readAssessment(caller, id)
+			.then((a) => a.current?.hernia ?? null)
+			.catch(() => null);
+		const parsed = clearanceFromForm(form, hernia);
+		if (!parsed.ok) {
+			return fail(400, { clearance: { values: parsed.values, errors: parsed.errors } });
+		}
+		const clientId = z.uuid().safeParse(form.get('clientId'));
+		if (!clientId.success) {
+			return fail(400, {
+				clearance: {
+					values: parsed.values,
+					errors: { form: 'The form lost its client; reload the page.' }
+				}
+			});
+		}
+		try {
+			await setClearance(caller, clientId.data, { ...parsed.data, referralId: id });
+			return { cleared: true };
+		} catch (caught) {
+			const failed = failFromProblem(caught, parsed.values, {
+				rename: (field) =>
+					field.replace(/^categories\./, 'level.').replace(/^modifications\./, 'mod.')
+			});
+			return fail(failed.status, { clearance: failed.data });
+		}
+	},
 	transition: async ({ locals, url, params, request }) => {
 		const caller = requirePageCaller(locals, url);
 		const id = pageId(params.id);

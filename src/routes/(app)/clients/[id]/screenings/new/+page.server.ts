@@ -1,6 +1,7 @@
 import { error } from '@sveltejs/kit';
 import { earlyScreenWarnings, redFlagsForStage, SITES, type Site } from '$lib/domain';
 import { SCREENING_WORDS, screeningField, screeningFromForm } from '$lib/clients/form';
+import { readClearance } from '$lib/server/clearance/clearance';
 import { failForm, failFromProblem } from '$lib/server/http/form';
 import { mayWriteClient } from '$lib/server/clients/policy';
 import { stageContextAt } from '$lib/server/clients/screening-record';
@@ -29,7 +30,9 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		redFlags: redFlagsForStage(client.stage),
 		warnings,
 		// Her own factor for the result's mm estimates (display only, never a criterion).
-		fingerFactor: await examinerFactor(caller)
+		fingerFactor: await examinerFactor(caller),
+		// An earlier sign sent her to a doctor: ask whether she was seen and it has gone.
+		askMedicalResolved: (await readClearance(caller, client.id)).seeDoctorFirst
 	};
 };
 

@@ -1,0 +1,73 @@
+import type { EffectiveLevel, MovementCategory } from '$lib/domain/movement';
+import type { ClearanceView } from './types';
+
+// The words each screen uses for clearances: the instructor's, and the client's plain ones.
+// Every level is said in words (and a symbol), never by colour alone.
+
+export type ClearanceStatus =
+	| 'see_doctor'
+	| 'review_overdue'
+	| 'new_findings'
+	| 'cleared_with_changes'
+	| 'cleared'
+	| 'provisional';
+
+export const STATUS_LABELS: Record<ClearanceStatus, string> = {
+	see_doctor: 'See doctor first',
+	review_overdue: 'Review overdue',
+	new_findings: 'New findings since the clearance',
+	cleared_with_changes: 'Cleared with changes',
+	cleared: 'Cleared',
+	provisional: 'Provisional'
+};
+
+/** The one status a list badge shows: the most urgent first. */
+export function clearanceStatus(
+	view: Pick<ClearanceView, 'seeDoctorFirst' | 'provisional' | 'reviewOverdue' | 'newFindings'> & {
+		effective: Record<string, { level: EffectiveLevel }>;
+	}
+): ClearanceStatus {
+	if (view.seeDoctorFirst) return 'see_doctor';
+	if (view.provisional) return 'provisional';
+	if (view.reviewOverdue) return 'review_overdue';
+	if (view.newFindings.length > 0) return 'new_findings';
+	const levels = Object.values(view.effective).map((l) => l.level);
+	return levels.every((l) => l === 'cleared') ? 'cleared' : 'cleared_with_changes';
+}
+
+/** The instructor's words for a level. */
+export const LEVEL_WORDS: Record<EffectiveLevel, string> = {
+	cleared: 'Cleared',
+	modify: 'Cleared with a change',
+	hold: 'Not yet',
+	no_limit: 'No limit noted'
+};
+
+/** A symbol beside each level, so the level never rests on colour. */
+export const LEVEL_SYMBOLS: Record<EffectiveLevel, string> = {
+	cleared: '✓',
+	modify: '≈',
+	hold: '✕',
+	no_limit: '–'
+};
+
+/** The client's words for each kind of movement. */
+export const CLIENT_CATEGORY_WORDS: Record<MovementCategory, string> = {
+	loaded_flexion: 'Curling up against resistance (crunches, roll-ups)',
+	long_lever: 'Holding your legs or arms out long while your tummy works',
+	front_loaded: 'Planks, and work on hands and knees',
+	loaded_rotation: 'Twisting against resistance',
+	loaded_extension: 'Arching back with a stretch across your tummy',
+	inversion: 'Going upside down and rolling',
+	high_pressure: 'Heavy lifting and holding your breath to push',
+	impact: 'Jumping, running and other impact',
+	deep_stability: 'Breathing and gentle deep-tummy exercises'
+};
+
+/** The client's words for a level. */
+export const CLIENT_LEVEL_WORDS: Record<EffectiveLevel, string> = {
+	cleared: 'You can do this',
+	modify: 'You can do this, changed like this',
+	hold: 'Not yet — wait for now',
+	no_limit: 'Nothing noted'
+};

@@ -1,0 +1,131 @@
+import { asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { effectiveLimits } from '../../domain/limits';
+import type {
+	EffectiveLimits,
+	LimitsClearance,
+	LimitsClient,
+	LimitsScreening
+} from '../../domain/movement';
+import type { Executor } from '../db';
+import { clearances, clients, organisations, screenings, users } from '../db/schema';
+
+// Builds the inputs of `effectiveLimits` (src/lib/domain/limits.ts) from the database, for
+// many clients at once: one query each for the records, their screenings and their current
+// clearances, however many clients a plan or a list holds. Not caller-facing: the calling
+// service has asserted its own policy and records its own access.
+
+type ClientRow = typeof clients.$inferSelect;
+type ScreeningRow = typeof screenings.$inferSelect;
+type ClearanceRow = typeof clearances.$inferSelect;
+
+export function limitsClient(row: ClientRow): LimitsClient {
+	return {
+		stage: row.stage,
+		dueDate: row.dueDate,
+		birthDate: row.birthDate,
+		delivery: row.delivery,
+		postnatalCheckOn: row.postnatalCheckOn,
+		postnatalCleared: row.postnatalCleared
+	};
+}
+
+export function limitsScreening(row: ScreeningRow): LimitsScreening {
+	return {
+		id: row.id,
+		takenAt: row.takenAt,
+		recordedAt: row.createdAt,
+		stage: row.stage,
+		sites: row.sites,
+		redFlags: row.redFlags,
+		outcome: row.outcome,
+		reasons: row.reasons,
+		...(row.medicalSignResolved === null ? {} : { medicalSignResolved: row.medicalSignResolved })
+	};
+}
+
+export function limitsClearance(
+	row: ClearanceRow,
+	names: { setByName: string | null; clinicName: string }
+): LimitsClearance {
+	return {
+		id: row.id,
+		setAt: row.setAt,
+		stageAtSet: row.stageAtSet,
+		levels: row.levels,
+		modifications: row.modifications,
+		reviewOn: row.reviewOn,
+		setByName: names.setByName ?? 'a physiotherapist',
+		clinicName: names.clinicName,
+		knownUntil: row.knownUntil,
+		sharingEndedOn: row.sharingEndedOn
+	};
+}
+
+/** Each client's current clearance (the newest one set), with who set it and where. */
+export async function currentClearances(
+	tx: Executor,
+	clientIds: readonly string[],
+	options: { clinicId?: string } = {}
+): Promise<Map<string, LimitsClearance & { row: ClearanceRow }>> {
+	const found = new Map<string, LimitsClearance & { row: ClearanceRow }>();
+	if (clientIds.length === 0) return found;
+	const rows = await tx
+		.selectDistinctOn([clearances.clientId], {
+			clearance: clearances,
+			setByName: users.name,
+			clinicName: organisations.name
+		})
+		.from(clearances)
+		.innerJoin(organisations, eq(organisations.id, clearances.clinicId))
+		.leftJoin(users, eq(users.id, clearances.setBy))
+		.where(
+			options.clinicId
+				? sql`${inArray(clearances.clientId, [...clientIds])} and ${eq(clearances.clinicId, options.clinicId)}`
+				: inArray(clearances.clientId, [...clientIds])
+		)
+		.orderBy(asc(clearances.clientId), desc(clearances.setAt), desc(clearances.id));
+	for (const r of rows) {
+		found.set(r.clearance.clientId, { ...limitsClearance(r.clearance, r), row: r.clearance });
+	}
+	return found;
+}
+
+/**
+ * Effective movement limits for each client, as of `today` (YYYY-MM-DD): three queries, then
+ * the pure rules. Clients that do not exist are left out of the map.
+ */
+export async function loadEffectiveLimits(
+	tx: Executor,
+	clientIds: string[],
+	today: string
+): Promise<Map<string, EffectiveLimits>> {
+	const ids = [...new Set(clientIds)];
+	const result = new Map<string, EffectiveLimits>();
+	if (ids.length === 0) return result;
+	// One after the other: a transaction is one connection, which runs one query at a time.
+	const records = await tx.select().from(clients).where(inArray(clients.id, ids));
+	const history = await tx
+		.select()
+		.from(screenings)
+		.where(inArray(screenings.clientId, ids))
+		.orderBy(asc(screenings.takenAt), asc(screenings.id));
+	const current = await currentClearances(tx, ids);
+	const byClient = new Map<string, LimitsScreening[]>();
+	for (const row of history) {
+		const list = byClient.get(row.clientId) ?? [];
+		list.push(limitsScreening(row));
+		byClient.set(row.clientId, list);
+	}
+	for (const record of records) {
+		result.set(
+			record.id,
+			effectiveLimits(
+				limitsClient(record),
+				byClient.get(record.id) ?? [],
+				current.get(record.id) ?? null,
+				today
+			)
+		);
+	}
+	return result;
+}
