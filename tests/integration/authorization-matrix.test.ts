@@ -18,12 +18,19 @@ import {
 	type Expected,
 	type Row
 } from './authorization-matrix';
+import { AUDIT_ROWS } from './matrix-rows/audit';
 import { CLIENT_ROWS } from './matrix-rows/clients';
 import { DOCUMENT_ROWS } from './matrix-rows/documents';
 import { REFERRAL_ROWS } from './matrix-rows/referrals';
 
 // The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
-const MATRIX: Row[] = [...CORE_ROWS, ...CLIENT_ROWS, ...REFERRAL_ROWS, ...DOCUMENT_ROWS];
+const MATRIX: Row[] = [
+	...CORE_ROWS,
+	...CLIENT_ROWS,
+	...REFERRAL_ROWS,
+	...DOCUMENT_ROWS,
+	...AUDIT_ROWS
+];
 
 const ROUTES = 'src/routes';
 

@@ -34,6 +34,7 @@ export const AUDIT_ACTIONS = [
 	'clearance.read',
 	'audit.read',
 	'audit.exported',
+	'audit.verified',
 	'access.denied'
 ] as const;
 
