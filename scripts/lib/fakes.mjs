@@ -7,7 +7,13 @@ import { root } from './env.mjs';
 export async function startFakes(env, { s3Dir, mailStore, log = console.log } = {}) {
 	const children = [];
 	const s3 = spawn(process.execPath, [join(root, 'fakes', 's3.mjs')], {
-		env: { ...env, S3_PORT: env.S3_PORT, S3_DIR: s3Dir, S3_BUCKET: env.S3_BUCKET },
+		env: {
+			...env,
+			S3_PORT: env.S3_PORT,
+			S3_DIR: s3Dir,
+			S3_BUCKET: env.S3_BUCKET,
+			AUDIT_ANCHOR_BUCKET: env.AUDIT_ANCHOR_BUCKET
+		},
 		stdio: ['ignore', 'inherit', 'inherit']
 	});
 	children.push(s3);
@@ -25,7 +31,7 @@ export async function startFakes(env, { s3Dir, mailStore, log = console.log } = 
 		waitForHttp(`${env.S3_ENDPOINT}/`, 's3 fake', s3),
 		waitForHttp(`${env.MAIL_INBOX_URL}/healthz`, 'mail fake', mail)
 	]);
-	log(`S3 fake   ${env.S3_ENDPOINT} (bucket ${env.S3_BUCKET})`);
+	log(`S3 fake   ${env.S3_ENDPOINT} (buckets ${env.S3_BUCKET}, ${env.AUDIT_ANCHOR_BUCKET})`);
 	log(`Mail fake smtp://127.0.0.1:${env.MAIL_SMTP_PORT}, inbox ${env.MAIL_INBOX_URL}`);
 	return {
 		children,

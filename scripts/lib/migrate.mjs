@@ -15,6 +15,7 @@ import { root } from './env.mjs';
 export const LOG_OWNER_ROLE = 'seamwell_log_owner';
 const APPEND_ONLY_TABLES = ['access_log', 'access_log_seals'];
 
+/** @param {string} name */
 const ident = (name) => {
 	if (!/^[a-z_][a-z0-9_]*$/.test(name)) throw new Error(`Unsafe database identifier: ${name}`);
 	return `"${name}"`;
@@ -54,17 +55,22 @@ export async function applyMigrations(env) {
 	}
 }
 
-/** The public tables and sequences the owner holds (the log's belong to the log's own role). */
+/**
+ * The public tables and sequences the owner holds (the log's belong to the log's own role).
+ * @param {pg.Client} client
+ * @param {string} owner
+ */
 async function ownedBy(client, owner) {
 	const rows = await client.query(
 		`select c.relname, c.relkind from pg_class c join pg_namespace n on n.oid = c.relnamespace
 		where n.nspname = 'public' and c.relkind in ('r', 'S') and c.relowner = $1::regrole`,
 		[owner]
 	);
+	/** @param {string} kind */
 	const names = (kind) =>
 		rows.rows
-			.filter((r) => r.relkind === kind)
-			.map((r) => `"${r.relname}"`)
+			.filter((/** @type {{ relkind: string }} */ r) => r.relkind === kind)
+			.map((/** @type {{ relname: string }} */ r) => `"${r.relname}"`)
 			.join(', ');
 	return { tables: names('r'), sequences: names('S') };
 }

@@ -2,6 +2,7 @@ import { startSealer } from './audit/sealer';
 import { db } from './db';
 import { startDocumentSweeper } from './documents/sweeper';
 import { startOutboxWorker } from './mail/worker';
+import { s3AnchorStore } from './storage/anchors';
 
 let running: (() => Promise<void>) | undefined;
 
@@ -17,7 +18,8 @@ export function startBackgroundWorkers(): () => Promise<void> {
 	if (running) return running;
 	const database = db();
 	const outbox = startOutboxWorker({ database });
-	const sealer = startSealer(database);
+	// The sealer also anchors the chain's head in the anchor bucket as it moves.
+	const sealer = startSealer(database, { anchors: s3AnchorStore });
 	// Deleting an orphan twice is harmless, so several processes may sweep side by side.
 	const sweeper = startDocumentSweeper(database);
 	let stopping: Promise<void> | undefined;

@@ -130,7 +130,7 @@ export function eventsQuery(
 type EventRow = Record<string, string | boolean | null>;
 
 function toItem(r: EventRow): AccessEventItem {
-	const s = (v: string | boolean | null) => (v === null ? null : String(v));
+	const s = (v: string | boolean | null | undefined) => (v == null ? null : String(v));
 	return {
 		id: Number(r.id),
 		at: new Date(Number(r.at_ms)).toISOString(),
