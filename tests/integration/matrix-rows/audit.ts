@@ -9,5 +9,9 @@ const api = (table: Row['expect']): Row['expect'] => ({ ...table, anonymous: 401
 
 export const AUDIT_ROWS: Row[] = [
 	{ route: '/api/v1/audit', call: 'GET', expect: api(only(ADMINS, 200)) },
-	{ route: '/api/v1/audit/[id]', call: 'GET', sample: NO_EVENT, expect: api(only([], 200)) }
+	{ route: '/api/v1/audit/[id]', call: 'GET', sample: NO_EVENT, expect: api(only([], 200)) },
+	{ route: '/api/v1/audit/verify', call: 'POST', expect: api(only(ADMINS, 200)) },
+	{ route: '/api/v1/audit/summary', call: 'GET', expect: api(only(ADMINS, 200)) },
+	{ route: '/(app)/admin/access-log', call: 'GET', expect: only(ADMINS, 200) },
+	{ route: '/(app)/admin/access-log', call: 'POST ?/verify', expect: only(ADMINS, 200) }
 ];

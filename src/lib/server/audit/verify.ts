@@ -48,6 +48,8 @@ export interface VerifyReport {
 	firstBroken: BrokenLink | null;
 	/** Rows after the head still unsealed after `staleAfterMs` (is the sealer running?). */
 	staleUnsealed: { count: number; oldestRowId: number | null; oldestAt: Date | null };
+	/** Links checked before the walk ended (all of them when intact). */
+	checked: number;
 	/** Links walked per second (the walk alone). */
 	rowsPerSecond: number;
 	elapsedMs: number;
@@ -102,6 +104,7 @@ export async function verifyChain(
 				latestAnchor: anchors.at(-1) ?? null,
 				firstBroken: null,
 				staleUnsealed: { count: 0, oldestRowId: null, oldestAt: null },
+				checked: 0,
 				rowsPerSecond: 0,
 				elapsedMs: 0
 			};
@@ -213,6 +216,7 @@ export async function verifyChain(
 					);
 				}
 			}
+			report.checked = walked;
 			report.elapsedMs = Math.round(performance.now() - started);
 			report.rowsPerSecond = Math.round(walked / Math.max(report.elapsedMs / 1000, 0.001));
 

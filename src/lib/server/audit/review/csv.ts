@@ -15,6 +15,6 @@ export function neutralise(cell: string): string {
 export function csvLines(rows: Array<Array<string | null>>): string {
 	return stringify(
 		rows.map((row) => row.map((cell) => neutralise(cell ?? ''))),
-		{ quoted: true, record_delimiter: 'windows' }
+		{ quoted: true, quoted_empty: true, record_delimiter: 'windows' }
 	);
 }

@@ -6,6 +6,9 @@ import { db, type Executor } from '../../db';
 import { notFound } from '../../http/problem';
 import { decodeCursor, encodeCursor, type Page } from '../../http/schemas';
 import { recordAccess } from '../writer';
+import { verifyAnchored } from '../verify';
+import { s3AnchorStore } from '../../storage/anchors';
+import { summariseWeeks, summaryStart, type DailyCount, type MemberActivity } from './summary';
 import { csvLines } from './csv';
 import { filterOf, timeRange, type ReviewQuery } from './filters';
 import { reviewerOf, type Reviewer } from './policy';
@@ -42,7 +45,10 @@ const cursorSchema = z.object({ at: z.number().int(), id: z.number().int().posit
 type Cursor = z.infer<typeof cursorSchema>;
 
 /** Her scope, or a logged refusal answered as 404. */
-async function assertReviewer(caller: Caller, action: 'audit.read' | 'audit.exported') {
+async function assertReviewer(
+	caller: Caller,
+	action: 'audit.read' | 'audit.exported' | 'audit.verified'
+) {
 	const reviewer = reviewerOf(caller.actor);
 	if (!reviewer) return refuse(caller, action, notFound());
 	return reviewer;
@@ -330,4 +336,97 @@ export async function exportAccessEvents(
 		{ highWaterMark: 0 }
 	);
 	return { filename: exportFilename(reviewer.organisationName, q), stream };
+}
+
+// ---------------------------------------------------------------- verify
+
+export interface VerifyAnswer {
+	ok: boolean;
+	checkedRows: number;
+	headRowId: number | null;
+	headHash: string | null;
+	anchoredHeads: number;
+	/** When the newest anchored head was written. */
+	anchoredAt: string | null;
+	rowsPerSecond: number;
+	firstBrokenRowId?: number;
+	detail?: string;
+}
+
+/**
+ * Policy: admin of the active organisation (the chain is one for all; the answer names rows
+ * by number only). Audit: audit.verified. Anchors the head, then checks the chain and every
+ * anchored head.
+ */
+export async function verifyAccessLog(caller: Caller): Promise<VerifyAnswer> {
+	const reviewer = await assertReviewer(caller, 'audit.verified');
+	const report = await verifyAnchored(db(), s3AnchorStore);
+	await db().transaction((tx) =>
+		recordAccess(tx, asReviewer(caller, reviewer), {
+			action: 'audit.verified',
+			outcome: 'success',
+			target: { type: 'organisation', id: reviewer.organisationId }
+		})
+	);
+	return {
+		ok: report.intact,
+		checkedRows: report.checked,
+		headRowId: report.headRowId,
+		headHash: report.headHash,
+		anchoredHeads: report.anchoredHeads,
+		anchoredAt: report.latestAnchor?.anchoredAt ?? null,
+		rowsPerSecond: report.rowsPerSecond,
+		...(report.firstBroken
+			? { firstBrokenRowId: report.firstBroken.rowId, detail: report.firstBroken.detail }
+			: {})
+	};
+}
+
+// ---------------------------------------------------------------- weekly summary
+
+/**
+ * Policy: admin of the active organisation; her members acting for it. Audit: audit.read.
+ * One grouped query of daily counts, summarised by ./summary.ts.
+ */
+export async function summariseActivity(
+	caller: Caller,
+	weeks: number,
+	today = new Date()
+): Promise<{ weeks: number; members: MemberActivity[] }> {
+	const reviewer = await assertReviewer(caller, 'audit.read');
+	const day = today.toISOString().slice(0, 10);
+	const start = summaryStart(day, weeks);
+	return db().transaction(async (tx) => {
+		const rows = await tx.execute<{
+			user_id: string;
+			name: string | null;
+			day: string;
+			action: string;
+			outcome: string;
+			n: string;
+		}>(sql`
+			select l.actor_user_id::text as user_id, u.name,
+				to_char(l.at at time zone 'UTC', 'YYYY-MM-DD') as day, l.action, l.outcome,
+				count(*)::text as n
+			from access_log l
+			left join users u on u.id = l.actor_user_id
+			where l.actor_organisation_id = ${reviewer.organisationId}
+				and l.actor_user_id is not null
+				and l.at >= ${`${start}T00:00:00Z`}::timestamptz
+			group by l.actor_user_id, u.name, 3, l.action, l.outcome`);
+		await recordAccess(tx, asReviewer(caller, reviewer), {
+			action: 'audit.read',
+			outcome: 'success',
+			target: { type: 'organisation', id: reviewer.organisationId }
+		});
+		const daily: DailyCount[] = rows.rows.map((r) => ({
+			userId: r.user_id,
+			name: r.name,
+			day: r.day,
+			action: r.action,
+			outcome: r.outcome,
+			count: Number(r.n)
+		}));
+		return { weeks, members: summariseWeeks(daily, day, weeks) };
+	});
 }

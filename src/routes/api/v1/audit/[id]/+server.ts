@@ -7,7 +7,8 @@ import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = apiHandler(async (event) => {
 	const caller = requireApiCaller(event.locals);
-	const id = Number(event.params.id);
-	if (!/^[1-9]\d{0,17}$/.test(event.params.id)) throw notFound();
-	return json(await getAccessEvent(caller, id));
+	// Event ids are the log's row numbers; anything else names no event.
+	const raw = event.params.id ?? '';
+	if (!/^[1-9]\d{0,14}$/.test(raw)) throw notFound();
+	return json(await getAccessEvent(caller, Number(raw)));
 });
