@@ -14,13 +14,14 @@ export async function startS3Fake({
 	port = 4569,
 	host = '127.0.0.1',
 	directory,
-	bucket = 'seamwell'
+	bucket = 'seamwell',
+	extraBuckets = []
 } = {}) {
 	if (!directory) throw new Error('s3 fake: directory is required');
 	const s3rver = new S3rver({
 		directory: path.resolve(directory),
 		silent: true,
-		configureBuckets: [{ name: bucket }]
+		configureBuckets: [bucket, ...extraBuckets].map((name) => ({ name }))
 	});
 	await s3rver.configureBuckets();
 	// our own listener, not s3rver.run(): run() leaves a listen error such as
@@ -78,10 +79,20 @@ function portFromEnv(name, fallback) {
 async function main() {
 	const host = process.env.S3_HOST || '127.0.0.1';
 	const bucket = process.env.S3_BUCKET || 'seamwell';
+	// The access log's anchors live in a bucket of their own.
+	const anchors = process.env.AUDIT_ANCHOR_BUCKET || 'seamwell-anchors';
 	const directory = path.resolve(process.env.S3_DIR || '.data/s3');
-	const fake = await startS3Fake({ port: portFromEnv('S3_PORT', 4569), host, directory, bucket });
+	const fake = await startS3Fake({
+		port: portFromEnv('S3_PORT', 4569),
+		host,
+		directory,
+		bucket,
+		extraBuckets: [anchors]
+	});
 	const shown = host.includes(':') ? `[${host}]` : host;
-	console.log(`s3 fake: http://${shown}:${fake.port} bucket ${bucket}, files in ${directory}`);
+	console.log(
+		`s3 fake: http://${shown}:${fake.port} buckets ${bucket}, ${anchors}, files in ${directory}`
+	);
 
 	const stop = (signal) => {
 		// a second signal means "now"

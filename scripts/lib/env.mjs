@@ -13,6 +13,7 @@ export const defaults = {
 	PGPORT: '54329',
 	S3_PORT: '4569',
 	S3_BUCKET: 'seamwell',
+	AUDIT_ANCHOR_BUCKET: 'seamwell-anchors',
 	MAIL_SMTP_PORT: '1025',
 	MAIL_HTTP_PORT: '1080',
 	DB_NAME: 'seamwell',

@@ -7,7 +7,13 @@ import { root } from './env.mjs';
 /** Starts the S3 fake as a child process (not waiting for it). */
 export function spawnS3Fake(env, { s3Dir }) {
 	return spawn(process.execPath, [join(root, 'fakes', 's3.mjs')], {
-		env: { ...env, S3_PORT: env.S3_PORT, S3_DIR: s3Dir, S3_BUCKET: env.S3_BUCKET },
+		env: {
+			...env,
+			S3_PORT: env.S3_PORT,
+			S3_DIR: s3Dir,
+			S3_BUCKET: env.S3_BUCKET,
+			AUDIT_ANCHOR_BUCKET: env.AUDIT_ANCHOR_BUCKET
+		},
 		stdio: ['ignore', 'inherit', 'inherit']
 	});
 }
@@ -34,7 +40,7 @@ export async function startFakes(env, { s3Dir, mailStore, log = console.log } = 
 	const mail = spawnMailFake(env, { mailStore });
 	const children = [s3, mail];
 	await Promise.all([s3Ready(env, s3), mailReady(env, mail)]);
-	log(`S3 fake   ${env.S3_ENDPOINT} (bucket ${env.S3_BUCKET})`);
+	log(`S3 fake   ${env.S3_ENDPOINT} (buckets ${env.S3_BUCKET}, ${env.AUDIT_ANCHOR_BUCKET})`);
 	log(`Mail fake smtp://127.0.0.1:${env.MAIL_SMTP_PORT}, inbox ${env.MAIL_INBOX_URL}`);
 	return {
 		children,

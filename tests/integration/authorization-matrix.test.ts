@@ -18,6 +18,7 @@ import {
 	type Expected,
 	type Row
 } from './authorization-matrix';
+import { AUDIT_ROWS } from './matrix-rows/audit';
 import { CLEARANCE_ROWS } from './matrix-rows/clearance';
 import { CLIENT_ROWS } from './matrix-rows/clients';
 import { DOCUMENT_ROWS } from './matrix-rows/documents';
@@ -31,7 +32,8 @@ const MATRIX: Row[] = [
 	...REFERRAL_ROWS,
 	...DOCUMENT_ROWS,
 	...CLEARANCE_ROWS,
-	...PLAN_ROWS
+	...PLAN_ROWS,
+	...AUDIT_ROWS
 ];
 
 const ROUTES = 'src/routes';

@@ -7,6 +7,7 @@ const complete = {
 	ORIGIN: 'http://127.0.0.1:3000',
 	S3_ENDPOINT: 'http://127.0.0.1:4569',
 	S3_BUCKET: 'seamwell',
+	AUDIT_ANCHOR_BUCKET: 'seamwell-anchors',
 	SMTP_HOST: '127.0.0.1',
 	SMTP_PORT: '1025'
 };

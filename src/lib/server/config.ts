@@ -11,6 +11,8 @@ const schema = z.object({
 	ORIGIN: z.url(),
 	S3_ENDPOINT: z.url(),
 	S3_BUCKET: z.string().min(1),
+	/** A separate bucket for the access log's anchored heads (object lock in production). */
+	AUDIT_ANCHOR_BUCKET: z.string().min(1),
 	S3_REGION: z.string().default('us-east-1'),
 	S3_ACCESS_KEY_ID: z.string().default('S3RVER'),
 	S3_SECRET_ACCESS_KEY: z.string().default('S3RVER'),

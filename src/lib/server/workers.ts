@@ -3,6 +3,7 @@ import { startReviewReminders } from './clearance/reviews';
 import { db } from './db';
 import { startDocumentSweeper } from './documents/sweeper';
 import { startOutboxWorker } from './mail/worker';
+import { s3AnchorStore } from './storage/anchors';
 
 let running: (() => Promise<void>) | undefined;
 
@@ -19,7 +20,8 @@ export function startBackgroundWorkers(): () => Promise<void> {
 	if (running) return running;
 	const database = db();
 	const outbox = startOutboxWorker({ database });
-	const sealer = startSealer(database);
+	// The sealer also anchors the chain's head in the anchor bucket as it moves.
+	const sealer = startSealer(database, { anchors: s3AnchorStore });
 	// Deleting an orphan twice is harmless, so several processes may sweep side by side.
 	const sweeper = startDocumentSweeper(database);
 	// Each reminder is claimed by an UPDATE … WHERE reminder_sent_at IS NULL: sent once.

@@ -48,6 +48,7 @@ export const AUDIT_ACTIONS = [
 	'audit.read',
 	'audit.exported',
 	'mail.resent',
+	'audit.verified',
 	'access.denied'
 ] as const;
 

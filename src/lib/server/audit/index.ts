@@ -10,4 +10,11 @@ export {
 	type AccessEvent
 } from './writer';
 export { sealPending, startSealer, type SealResult } from './sealer';
-export { describeReport, verifyChain, type BrokenLink, type VerifyReport } from './verify';
+export {
+	describeReport,
+	verifyAnchored,
+	verifyChain,
+	type BrokenLink,
+	type VerifyReport
+} from './verify';
+export { anchorHead, memoryAnchorStore, type AnchorStore } from './anchors';

@@ -172,8 +172,8 @@ describe('the database refuses rewriting the log', () => {
 	it.each([
 		// The app role has no UPDATE, DELETE or TRUNCATE grant: refused before the triggers.
 		['the app role', 'DATABASE_URL', /permission denied/],
-		// The owner may do anything the grants allow: the triggers refuse.
-		['the owner', 'DATABASE_OWNER_URL', /append-only: (UPDATE|DELETE|TRUNCATE) refused/]
+		// The owner of everything else no longer owns the log (seamwell_log_owner does): no grant.
+		['the owner', 'DATABASE_OWNER_URL', /permission denied/]
 	])('UPDATE, DELETE and TRUNCATE fail for %s', async (_who, urlName, refusal) => {
 		const url = new URL(requireEnv(urlName));
 		url.pathname = `/${scratch.name}`;
@@ -188,5 +188,53 @@ describe('the database refuses rewriting the log', () => {
 		}
 		const report = await verifyChain(scratch.app);
 		expect(report).toMatchObject({ intact: true, rows: 1, sealed: 1 });
+	});
+
+	it('the superuser still meets the triggers (they hold whoever asks)', async () => {
+		await scratch.asSuperuser(async (client) => {
+			await expect(client.query(`delete from access_log where id = $1`, [rowId])).rejects.toThrow(
+				/append-only: DELETE refused/
+			);
+		});
+	});
+
+	it.each([
+		['DISABLE TRIGGER', `alter table access_log disable trigger access_log_no_update_delete`],
+		['DISABLE TRIGGER ALL', `alter table access_log_seals disable trigger all`],
+		['DROP TRIGGER', `drop trigger access_log_no_truncate on access_log`],
+		[
+			'replace the trigger function',
+			`create or replace function seamwell_refuse_rewrite() returns trigger language plpgsql as 'begin return new; end'`
+		],
+		['take the log owner role', `set role seamwell_log_owner`],
+		['hand the table to itself', `alter table access_log owner to current_user`]
+	])('the owner login role cannot %s', async (_what, statement) => {
+		const url = new URL(requireEnv('DATABASE_OWNER_URL'));
+		url.pathname = `/${scratch.name}`;
+		const client = await connect(url.toString());
+		try {
+			await expect(client.query(statement)).rejects.toThrow(/must be owner|permission denied/);
+		} finally {
+			await client.end();
+		}
+		const owners = await scratch.asSuperuser((su) =>
+			su.query<{ relname: string; owner: string; login: boolean }>(
+				`select c.relname, r.rolname as owner, r.rolcanlogin as login
+				from pg_class c join pg_roles r on r.oid = c.relowner
+				where c.relname in ('access_log', 'access_log_seals') order by c.relname`
+			)
+		);
+		expect(owners.rows).toEqual([
+			{ relname: 'access_log', owner: 'seamwell_log_owner', login: false },
+			{ relname: 'access_log_seals', owner: 'seamwell_log_owner', login: false }
+		]);
+		const triggers = await scratch.asSuperuser((su) =>
+			su.query<{ n: number }>(
+				`select count(*)::int as n from pg_trigger
+				where tgrelid in ('access_log'::regclass, 'access_log_seals'::regclass)
+					and not tgisinternal and tgenabled = 'O'`
+			)
+		);
+		expect(triggers.rows[0]!.n).toBe(4);
 	});
 });

@@ -8,7 +8,9 @@ import { GENESIS_HASH } from './chain';
 import { sealPending } from './sealer';
 import { createTestClient } from './testing/client';
 import { createScratchDatabase, type ScratchDatabase } from './testing/scratch-database';
-import { verifyChain } from './verify';
+import { anchorHead, listAnchors, memoryAnchorStore } from './anchors';
+import { s3AnchorStore } from '../storage/anchors';
+import { verifyAnchored, verifyChain } from './verify';
 import { recordAccess, systemContext } from './writer';
 
 // Each test works in a database of its own: tampering must not spoil the shared one.
@@ -254,5 +256,125 @@ describe('the sealer and the verifier', () => {
 		const bad = run();
 		expect(bad.stdout).toContain(`BROKEN at row ${all[1]} (row-altered)`);
 		expect(bad.status).toBe(1);
+	}, 120_000); // two runs of a tsx script: slow on a busy machine
+
+	it('`npm run audit:verify` anchors the head in the anchor bucket and names a cut tail', async () => {
+		const s = await fresh();
+		await writeRows(s.app, 5);
+		const run = () =>
+			spawnSync(process.execPath, ['scripts/audit-verify.mjs', '--seal'], {
+				env: { ...process.env, DATABASE_URL: s.appUrl },
+				encoding: 'utf8'
+			});
+		const good = run();
+		expect(good.stdout).toMatch(/intact: 5 link\(s\) verified[\s\S]*1 anchored head\(s\) checked/);
+		const all = await ids(s);
+		const anchored = await listAnchors(s.app, s3AnchorStore);
+		expect(anchored.map((a) => a.rowId)).toEqual([all[4]]);
+		// A second anchor of the same head is not written again (create-only keys).
+		expect(await s3AnchorStore.create(anchored[0]!.key, '{}')).toBe(false);
+
+		await tamper(
+			s,
+			`delete from access_log where id > ${all[2]}`,
+			`delete from access_log_seals where row_id > ${all[2]}`
+		);
+		const bad = run();
+		expect(bad.stdout).toContain(`rows after #${all[2]} are missing; anchored head at #${all[4]}`);
+		expect(bad.status).toBe(1);
+	}, 120_000); // two runs of a tsx script: slow on a busy machine
+});
+
+describe('anchored heads', () => {
+	/** Six sealed rows with their head anchored; returns the ids and the store. */
+	async function anchoredLog(count = 6) {
+		const s = await fresh();
+		await writeRows(s.app, count);
+		await sealPending(s.app, { gapGraceMs: 0 });
+		const store = memoryAnchorStore();
+		await anchorHead(s.app, store);
+		return { s, store, all: await ids(s) };
+	}
+
+	it('a cut tail (rows and seals removed by a superuser) verifies alone but not against the anchor', async () => {
+		const { s, store, all } = await anchoredLog();
+		await tamper(
+			s,
+			`delete from access_log where id > ${all[3]}`,
+			`delete from access_log_seals where row_id > ${all[3]}`
+		);
+		expect((await verifyChain(s.app)).intact).toBe(true);
+		const report = await verifyAnchored(s.app, store);
+		expect(report.firstBroken).toMatchObject({ rowId: all[4], problem: 'rows-missing' });
+		expect(report.firstBroken!.detail).toMatch(
+			new RegExp(
+				`^rows after #${all[3]} are missing; anchored head at #${all[5]} \\(anchored \\d{4}-`
+			)
+		);
+	});
+
+	it('a chain re-sealed after an edited row verifies alone but not against the anchor', async () => {
+		const { s, store, all } = await anchoredLog();
+		await tamper(
+			s,
+			`update access_log set outcome = 'success', action = 'client.listed' where id = ${all[2]}`,
+			`delete from access_log_seals where row_id >= ${all[2]}`
+		);
+		await sealPending(s.app, { gapGraceMs: 0 });
+		expect((await verifyChain(s.app)).intact).toBe(true);
+		const report = await verifyAnchored(s.app, store);
+		expect(report.firstBroken).toMatchObject({ rowId: all[5], problem: 'anchor-mismatch' });
+		expect(report.firstBroken!.detail).toContain('re-sealed');
+	});
+
+	it.each([
+		[
+			'an altered row',
+			(all: number[]) => [`update access_log set client_address = '10.0.0.1' where id = ${all[2]}`],
+			2,
+			'row-altered'
+		],
+		[
+			'a deleted middle row',
+			(all: number[]) => [`delete from access_log where id = ${all[3]}`],
+			3,
+			'row-missing'
+		],
+		[
+			'reordered rows',
+			(all: number[]) => [
+				`update access_log set id = -1 where id = ${all[1]}`,
+				`update access_log set id = ${all[1]} where id = ${all[2]}`,
+				`update access_log set id = ${all[2]} where id = -1`
+			],
+			1,
+			'row-altered'
+		],
+		[
+			'a cut tail',
+			(all: number[]) => [
+				`delete from access_log where id >= ${all[4]}`,
+				`delete from access_log_seals where row_id >= ${all[4]}`
+			],
+			4,
+			'rows-missing'
+		]
+	])(
+		'names the first broken row after %s, walking in small batches',
+		async (_what, statements, index, problem) => {
+			const { s, store, all } = await anchoredLog(7);
+			await tamper(s, ...statements(all));
+			const report = await verifyAnchored(s.app, store, { batchSize: 2 });
+			expect(report.firstBroken).toMatchObject({ rowId: all[index], problem });
+			expect(report.intact).toBe(false);
+		}
+	);
+
+	it('walks a long log in batches and reports its speed', async () => {
+		const { s, store } = await anchoredLog(25);
+		const report = await verifyAnchored(s.app, store, { batchSize: 4 });
+		expect(report).toMatchObject({ intact: true, sealed: 25, anchoredHeads: 1 });
+		expect(report.rowsPerSecond).toBeGreaterThan(0);
+		expect(report.headHash).toMatch(/^[0-9a-f]{64}$/);
 	});
 });

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import { briefError } from '../db/errors';
 import type { Database } from '../db';
+import { anchorHead, type AnchorStore } from './anchors';
 import { chainColumns, GENESIS_HASH, linkHash, toChainRow } from './chain';
 
 // The sealer appends, for every access-log row in id order, one link (row id, previous hash,
@@ -113,15 +114,27 @@ export interface SealerLoop {
 	stop(): Promise<void>;
 }
 
+/** How often at most a moving head is anchored (so at least every half minute with new rows). */
+export const DEFAULT_ANCHOR_EVERY_MS = 30_000;
+
 /**
- * Runs `sealPending` every `intervalMs` (default 1 s) until stopped. A database that is
+ * Runs `sealPending` every `intervalMs` (default 1 s) until stopped, and anchors the head in
+ * `anchors` whenever it moved, at most every `anchorEveryMs`. A database or store that is
  * down is logged (once per outage) and retried on the next tick; it never throws.
  */
 export function startSealer(
 	database: Database,
-	options: SealOptions & { intervalMs?: number; log?: (line: string) => void } = {}
+	options: SealOptions & {
+		intervalMs?: number;
+		log?: (line: string) => void;
+		anchors?: AnchorStore;
+		anchorEveryMs?: number;
+	} = {}
 ): SealerLoop {
 	const intervalMs = options.intervalMs ?? 1000;
+	const anchorEveryMs = options.anchorEveryMs ?? DEFAULT_ANCHOR_EVERY_MS;
+	let headMoved = false;
+	let lastAnchorAt = 0;
 	const log = options.log ?? ((line: string) => console.error(line));
 	let stopped = false;
 	let failing = false;
@@ -131,7 +144,13 @@ export function startSealer(
 	const tick = () => {
 		running = (async () => {
 			try {
-				await sealPending(database, options);
+				const result = await sealPending(database, options);
+				if (result.sealed > 0) headMoved = true;
+				if (options.anchors && headMoved && Date.now() - lastAnchorAt >= anchorEveryMs) {
+					await anchorHead(database, options.anchors);
+					headMoved = false;
+					lastAnchorAt = Date.now();
+				}
 				if (failing) log('[audit] sealer: database reachable again');
 				failing = false;
 			} catch (error) {

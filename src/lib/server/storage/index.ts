@@ -113,3 +113,54 @@ export async function storageHealthy(): Promise<boolean> {
 		return false;
 	}
 }
+
+// ---------------------------------------------------------------- access-log anchors
+// The access log's anchored heads live in a bucket of their own (in production one with
+// object lock). This module offers no way to delete or overwrite one: an anchor is created
+// once under a key that names its row and hash, and a second write of the same key is refused.
+
+const anchorBucket = () => config().AUDIT_ANCHOR_BUCKET;
+
+/** Creates the anchor object unless one exists under that key; true when it was written. */
+export async function createAnchorObject(key: string, body: string): Promise<boolean> {
+	try {
+		await s3().send(new HeadObjectCommand({ Bucket: anchorBucket(), Key: key }));
+		return false;
+	} catch (error) {
+		if ((error as { name?: string }).name !== 'NotFound') throw error;
+	}
+	await s3().send(
+		new PutObjectCommand({
+			Bucket: anchorBucket(),
+			Key: key,
+			Body: body,
+			ContentType: 'application/json',
+			// S3 refuses the write if the key appeared meanwhile (conditional write).
+			IfNoneMatch: '*'
+		})
+	);
+	return true;
+}
+
+export async function listAnchorKeys(prefix: string): Promise<string[]> {
+	const keys: string[] = [];
+	let token: string | undefined;
+	do {
+		const page = await s3().send(
+			new ListObjectsV2Command({
+				Bucket: anchorBucket(),
+				Prefix: prefix,
+				ContinuationToken: token
+			})
+		);
+		for (const item of page.Contents ?? []) if (item.Key) keys.push(item.Key);
+		token = page.IsTruncated ? page.NextContinuationToken : undefined;
+	} while (token);
+	return keys;
+}
+
+export async function readAnchorObject(key: string): Promise<string> {
+	const result = await s3().send(new GetObjectCommand({ Bucket: anchorBucket(), Key: key }));
+	if (!result.Body) throw new Error(`anchor ${key} has no body`);
+	return result.Body.transformToString('utf8');
+}

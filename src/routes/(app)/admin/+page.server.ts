@@ -4,16 +4,28 @@ import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
 import { listFailedMailFor, resendFailedMail } from '$lib/server/mail/service';
 import { failFromProblem } from '$lib/server/http/form';
+import { summariseActivity } from '$lib/server/audit/review/service';
 import { summariseArea } from '$lib/server/people/service';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	const [summary, failedMail] = await Promise.all([
+	const [summary, failedMail, activity] = await Promise.all([
 		forPage(summariseArea(caller, 'admin')),
-		forPage(listFailedMailFor(caller))
+		forPage(listFailedMailFor(caller)),
+		forPage(summariseActivity(caller, 1))
 	]);
-	return { summary, failedMail };
+	// This week's totals over her members, for the access-log card.
+	const week = { read: 0, download: 0, export: 0, refusal: 0, unusual: 0 };
+	for (const member of activity.members) {
+		const w = member.weeks[0]!;
+		week.read += w.counts.read;
+		week.download += w.counts.download;
+		week.export += w.counts.export;
+		week.refusal += w.counts.refusal;
+		if (w.unusual) week.unusual += 1;
+	}
+	return { summary, failedMail, week };
 };
 
 const resendForm = z.object({ mailId: z.uuid('Unknown mail.') });

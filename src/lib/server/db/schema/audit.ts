@@ -24,10 +24,16 @@ export const accessLog = pgTable(
 		clientAddress: text('client_address'),
 		userAgent: text('user_agent')
 	},
+	// Every filter of the admin's review answers from one of these, newest first by (at, id)
+	// (keyset pagination); chosen from EXPLAIN (ANALYZE, BUFFERS) on a 1 M-row log.
 	(t) => [
-		index('access_log_at_idx').on(t.at),
-		index('access_log_subject_idx').on(t.subjectKey),
-		index('access_log_actor_org_idx').on(t.actorOrganisationId)
+		index('access_log_at_id_idx').on(t.at, t.id),
+		index('access_log_subject_at_idx').on(t.subjectKey, t.at, t.id),
+		index('access_log_actor_org_at_idx').on(t.actorOrganisationId, t.at, t.id),
+		index('access_log_actor_at_idx').on(t.actorUserId, t.at, t.id),
+		index('access_log_target_at_idx').on(t.targetType, t.targetId, t.at, t.id),
+		index('access_log_action_at_idx').on(t.action, t.at, t.id),
+		index('access_log_outcome_at_idx').on(t.outcome, t.at, t.id)
 	]
 );
 
