@@ -121,7 +121,8 @@ try {
 				});
 				cleanups.push(() => stopChild(app));
 				await waitForHttp(`${testEnv.ORIGIN}/healthz`, 'app', app, 60_000);
-				stage('browser', 'npx', ['playwright', 'test', ...filters]);
+				// The shutdown test starts a second app process from the same build.
+				stage('browser', 'npx', ['playwright', 'test', ...filters], { APP_BUILD_DIR: buildDir });
 			}
 		}
 	}

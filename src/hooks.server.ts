@@ -39,6 +39,7 @@ import {
 import { hasRecordedRefusal, recordRefusal } from '$lib/server/audit';
 import { limitRequestBody } from '$lib/server/documents/limits';
 import { startBackgroundWorkers } from '$lib/server/workers';
+import { closeDatabase } from '$lib/server/db';
 
 let stopWorkers: (() => Promise<void>) | undefined;
 
@@ -48,6 +49,19 @@ export const init: ServerInit = async () => {
 	config();
 	stopWorkers ??= startBackgroundWorkers();
 };
+
+// On SIGTERM or SIGINT the Node adapter stops accepting requests, lets those in flight finish,
+// then emits this event: finish the workers' current step and close the database pool, so the
+// process ends by itself (a deploy or `npm start`'s restart need not wait for a SIGKILL).
+async function shutDown(): Promise<void> {
+	try {
+		await stopWorkers?.();
+		await closeDatabase();
+	} catch (error) {
+		console.error('[shutdown]', error);
+	}
+}
+process.once('sveltekit:shutdown', () => void shutDown());
 
 /**
  * Headers every response carries (the Content-Security-Policy of pages comes from

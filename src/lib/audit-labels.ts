@@ -1,5 +1,8 @@
-// Plain words for the access log's action codes, for the admin's review (browser-safe).
-export const AUDIT_ACTION_LABELS: Record<string, string> = {
+// Plain words for the access log's action codes, for the admin's review (browser-safe: the
+// import below is a type only). Typed over every code, so a new action cannot go unlabelled.
+import type { AuditAction } from '$lib/server/audit/actions';
+
+export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
 	'signin.requested': 'Asked for a sign-in link',
 	'signin.succeeded': 'Signed in',
 	'signin.refused': 'Sign-in refused',
@@ -25,19 +28,33 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
 	'referral.read': 'Read a referral',
 	'referral.listed': 'Listed referrals',
 	'referral.transitioned': 'Moved a referral on',
+	'exercise.created': 'Added a studio exercise',
+	'plan.created': 'Started a session plan',
+	'plan.read': 'Opened a session plan',
+	'plan.listed': 'Listed session plans',
+	'plan.updated': 'Changed a session plan',
+	'plan.ready': 'Marked a session plan ready',
+	'plan.overridden': 'Kept an exercise against the check',
+	'plan.printed': 'Printed a session sheet',
+	'clearance.review_requested': 'Asked the clinic for a clearance review',
 	'document.uploaded': 'Uploaded a document',
 	'document.downloaded': 'Downloaded a document',
 	'document.updated': 'Changed a document',
 	'letter.downloaded': 'Downloaded a referral letter',
+	'assessment.recorded': 'Recorded an assessment',
+	'assessment.read': 'Read an assessment',
 	'clearance.set': 'Set a clearance',
 	'clearance.read': 'Read a clearance',
+	'clearance.listed': 'Listed clearances',
+	'clearance.reminded': 'Sent a clearance review reminder',
 	'audit.read': 'Read the access log',
 	'audit.exported': 'Exported the access log',
+	'mail.resent': 'Sent a failed mail again',
 	'audit.verified': 'Verified the access log',
 	'access.denied': 'Was refused access'
 };
 
-export const actionLabel = (code: string) => AUDIT_ACTION_LABELS[code] ?? code;
+export const actionLabel = (code: string) => AUDIT_ACTION_LABELS[code as AuditAction] ?? code;
 
 export const OUTCOME_LABELS: Record<string, string> = {
 	success: 'Done',

@@ -13,9 +13,6 @@ for (const [label, width, height] of [
 	test(`the access log at ${label} width: filter by client, page, export, verify`, async ({
 		page
 	}) => {
-		// Known failure, being fixed: in the built app, following "Review the access log" from the
-		// admin dashboard leaves her on the dashboard. The API and its integration tests pass.
-		test.fixme();
 		test.setTimeout(180_000); // sign-in, two record reads, export and verify on a busy machine
 		await page.setViewportSize({ width, height });
 		await signIn(page, 'admin@studio.example');

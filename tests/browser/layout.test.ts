@@ -18,8 +18,6 @@ const ROLES = [
 /** Pages, not files or actions: what a person opens by following a link. */
 function isPage(url: URL, origin: string): boolean {
 	if (url.origin !== origin) return false;
-	// Known and being fixed: the plan editor's grid still widens the page on a phone.
-	if (/^\/plans\/[0-9a-f-]{36}$/.test(url.pathname)) return false;
 	return !/^\/(api|auth|problems|healthz|signin)(\/|$)/.test(url.pathname);
 }
 

@@ -19,6 +19,13 @@ export function db(): Database {
 	return instance;
 }
 
+/** Ends the pool's connections (at shutdown); a later db() call opens a new pool. */
+export async function closeDatabase(): Promise<void> {
+	const open = instance;
+	instance = undefined;
+	await open?.$client.end();
+}
+
 export function createDatabase(url: string, options: pg.PoolConfig = {}): Database {
 	const pool = new pg.Pool({ connectionString: url, max: 10, ...options });
 	// A client whose connection drops (server restart, network) emits 'error'; without a

@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { kindOf, median, summariseWeeks, summaryStart, weekOf, type DailyCount } from './summary';
+import {
+	kindOf,
+	median,
+	MIN_UNUSUAL_READS,
+	summariseWeeks,
+	summaryStart,
+	weekOf,
+	type DailyCount
+} from './summary';
 
 // Invented counts; the "three times the median of the four weeks before" rule is the
 // product's own (common practice for a simple outlier flag, no source).
@@ -72,6 +80,14 @@ describe('weekly activity summary', () => {
 		// The week before: median of 12, 8, 10 and an empty week (0) = 9; 10 reads is usual.
 		expect(ana!.weeks[1]).toMatchObject({ week: '2026-11-23', baselineReads: 9, unusual: false });
 		expect(ben!.weeks[0]).toMatchObject({ baselineReads: 5, unusual: false });
+	});
+
+	it('never flags a handful of reads, even against an empty history', () => {
+		// A new member's first week: a median of 0 would make any read "unusual".
+		const [few] = summariseWeeks([day('di', '2026-12-01', MIN_UNUSUAL_READS - 1)], '2026-12-02', 1);
+		expect(few!.weeks[0]).toMatchObject({ baselineReads: 0, unusual: false });
+		const [many] = summariseWeeks([day('di', '2026-12-01', MIN_UNUSUAL_READS)], '2026-12-02', 1);
+		expect(many!.weeks[0]).toMatchObject({ baselineReads: 0, unusual: true });
 	});
 
 	it('leaves out members with nothing in the weeks shown', () => {

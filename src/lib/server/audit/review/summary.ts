@@ -42,6 +42,12 @@ export function kindOf(action: string, outcome: string): ActivityKind {
 
 const DAY_MS = 86_400_000;
 
+/**
+ * A week with fewer reads than this is never flagged: three times a median of 0 or 1 would
+ * flag a new member's first handful of reads (common practice, no source).
+ */
+export const MIN_UNUSUAL_READS = 10;
+
 /** The Monday (UTC) of the week holding `day`. */
 export function weekOf(day: string): string {
 	const t = Date.parse(`${day}T00:00:00Z`);
@@ -102,7 +108,12 @@ export function summariseWeeks(
 		const shown = weekStarts.slice(0, weeks).map((week, i) => {
 			const counts = member.byWeek.get(week) ?? zero();
 			const baselineReads = median(weekStarts.slice(i + 1, i + 5).map(readsOf));
-			return { week, counts, baselineReads, unusual: counts.read > 3 * baselineReads };
+			return {
+				week,
+				counts,
+				baselineReads,
+				unusual: counts.read >= MIN_UNUSUAL_READS && counts.read > 3 * baselineReads
+			};
 		});
 		if (shown.some((w) => ACTIVITY_KINDS.some((k) => w.counts[k] > 0))) {
 			result.push({ userId, name: member.name, weeks: shown });

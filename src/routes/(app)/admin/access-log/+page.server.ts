@@ -28,7 +28,12 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	return {
 		page,
 		errors,
-		members: members.members.map((m) => ({ userId: m.userId, name: m.name ?? m.email })),
+		// One row per membership: a person who is both admin and instructor is listed once.
+		members: [
+			...new Map(
+				members.members.map((m) => [m.userId, { userId: m.userId, name: m.name ?? m.email }])
+			)
+		].map(([, m]) => m),
 		organisationName: members.organisationName,
 		summary
 	};
