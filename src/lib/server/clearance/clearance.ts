@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, ne } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, ne } from 'drizzle-orm';
 import type { ClearanceData } from '$lib/clearance/schemas';
 import type { ClearanceVersion, ClearanceView } from '$lib/clearance/types';
 import { effectiveLimits } from '../../domain/limits';
@@ -9,6 +9,7 @@ import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
 import {
+	clearanceReviewRequests,
 	clearances,
 	clients,
 	organisations,
@@ -136,6 +137,17 @@ export async function setClearance(
 					supersedes: previous?.id ?? null
 				})
 				.returning({ id: clearances.id });
+			// A new clearance answers the studio's open requests to review the last one.
+			await tx
+				.update(clearanceReviewRequests)
+				.set({ seenAt: now })
+				.where(
+					and(
+						eq(clearanceReviewRequests.clientId, clientId),
+						eq(clearanceReviewRequests.clinicId, referral.clinicId),
+						isNull(clearanceReviewRequests.seenAt)
+					)
+				);
 			await recordAccess(tx, caller.access, {
 				action: 'clearance.set',
 				outcome: 'success',

@@ -23,6 +23,7 @@ import {
 } from '../referrals/testing/fixtures';
 import { readAssessment, recordAssessment } from './assessment';
 import { readClearance, setClearance, todayUtc } from './clearance';
+import { listReviewRequests, requestClearanceReview } from '../plans/service';
 import { loadEffectiveLimits } from './limits';
 import { listClearanceReviews, REMINDER_DAYS, sendReviewReminders } from './reviews';
 
@@ -325,5 +326,27 @@ describe('a sign that sends her to a doctor', () => {
 		const lifted = await readClearance(instructor.caller, client.clientId);
 		expect(lifted.seeDoctorFirst).toBe(false);
 		expect(lifted.effective.deep_stability.level).not.toBe('hold');
+	});
+});
+
+describe('a studio asks the clinic to review a clearance', () => {
+	it('the physio sees the open request with a link to the referral; a new clearance answers it', async () => {
+		const { client, referralId } = await acceptedCase();
+		await setClearance(physio.caller, client.clientId, clearanceInput());
+		const { id } = await requestClearanceReview(instructor.caller, client.clientId, {
+			note: 'She feels strong in class; could the curl-ups be looked at again?'
+		});
+
+		const open = await listReviewRequests(physio.caller);
+		expect(open.find((r) => r.id === id)).toMatchObject({
+			clientId: client.clientId,
+			referralId,
+			note: 'She feels strong in class; could the curl-ups be looked at again?'
+		});
+		// Another clinic's physiotherapist sees nothing of it.
+		expect((await listReviewRequests(otherPhysio.caller)).some((r) => r.id === id)).toBe(false);
+
+		await setClearance(physio.caller, client.clientId, clearanceInput());
+		expect((await listReviewRequests(physio.caller)).some((r) => r.id === id)).toBe(false);
 	});
 });

@@ -20,7 +20,7 @@ import type {
 	PlanItem,
 	PlanSummary
 } from '$lib/plans/types';
-import { recordAccess, type AuditAction } from '../audit';
+import { recordAccess, recordAccesses, type AuditAction } from '../audit';
 import { loadEffectiveLimits } from '../clearance/limits';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
@@ -30,6 +30,7 @@ import {
 	clearances,
 	clients,
 	memberships,
+	organisations,
 	planClients,
 	planOverrides,
 	plans,
@@ -885,11 +886,14 @@ export interface ReviewRequestItem {
 	exerciseName: string | null;
 	note: string;
 	createdAt: string;
+	/** The clinic's newest referral for her, where a new clearance is set; null if none is open. */
+	referralId: string | null;
 }
 
 /**
- * Policy: a physiotherapist of the clinic asked (the clinic set the clearance). Audit:
- * clearance.read per client listed — the list names clients.
+ * Policy: a physiotherapist of the clinic asked (the clinic set the clearance). Open requests
+ * only: setting a new clearance for the client answers them. Audit: clearance.listed per
+ * request — the list names clients.
  */
 export async function listReviewRequests(caller: Caller): Promise<ReviewRequestItem[]> {
 	const clinics = caller.actor.memberships
@@ -898,9 +902,20 @@ export async function listReviewRequests(caller: Caller): Promise<ReviewRequestI
 	if (clinics.length === 0) return refuseUse(caller, 'clearance.listed');
 	return db().transaction(async (tx) => {
 		const rows = await tx
-			.select({ request: clearanceReviewRequests, clientName: clients.name })
+			.select({
+				request: clearanceReviewRequests,
+				clientName: clients.name,
+				studioName: organisations.name,
+				referralId: sql<string | null>`(
+					select r.id from referrals r
+					where r.client_id = ${clearanceReviewRequests.clientId}
+						and r.clinic_id = ${clearanceReviewRequests.clinicId}
+						and r.state in ('accepted', 'assessed')
+					order by r.created_at desc limit 1)`
+			})
 			.from(clearanceReviewRequests)
 			.innerJoin(clients, eq(clients.id, clearanceReviewRequests.clientId))
+			.innerJoin(organisations, eq(organisations.id, clearanceReviewRequests.studioId))
 			.where(
 				and(
 					inArray(clearanceReviewRequests.clinicId, clinics),
@@ -909,35 +924,26 @@ export async function listReviewRequests(caller: Caller): Promise<ReviewRequestI
 			)
 			.orderBy(desc(clearanceReviewRequests.createdAt))
 			.limit(50);
-		const names = new Map(
-			caller.actor.memberships.map((m) => [m.organisationId, m.organisationName] as const)
-		);
-		const studioNames = rows.length
-			? await tx.execute<{ id: string; name: string }>(
-					sql`select id, name from organisations where id in (${sql.join(
-						rows.map((r) => sql`${r.request.studioId}::uuid`),
-						sql`, `
-					)})`
-				)
-			: { rows: [] };
-		for (const r of studioNames.rows) names.set(r.id, r.name);
 		const exerciseNames = new Map(SHIPPED_EXERCISES.map((e) => [e.id, e.name]));
-		for (const r of rows) {
-			await recordAccess(tx, caller.access, {
-				action: 'clearance.listed',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			rows.map((r) => ({
+				action: 'clearance.listed' as const,
+				outcome: 'success' as const,
 				target: { type: 'clearance_review_request', id: r.request.id },
 				clientId: r.request.clientId
-			});
-		}
+			}))
+		);
 		return rows.map((r) => ({
 			id: r.request.id,
 			clientId: r.request.clientId,
 			clientName: r.clientName,
-			studioName: names.get(r.request.studioId) ?? 'A studio',
+			studioName: r.studioName,
 			exerciseName: r.request.exerciseId ? (exerciseNames.get(r.request.exerciseId) ?? null) : null,
 			note: r.request.note,
-			createdAt: r.request.createdAt.toISOString()
+			createdAt: r.request.createdAt.toISOString(),
+			referralId: r.referralId
 		}));
 	});
 }
