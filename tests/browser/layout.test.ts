@@ -1,8 +1,10 @@
 // No page scrolls sideways on a phone or a tablet: every demo role signs in, walks every page
 // it can reach by following links from its start page (records included), and each page is
 // measured at 320, 390 and 768 px. A page wider than the window hides its right-hand side
-// on the studio floor.
+// on the studio floor. Each page also passes axe (WCAG 2.2 A/AA, target size included) at a
+// phone's and a desktop's width.
 import { expect, test, type Page } from '@playwright/test';
+import { accessibilityViolations } from './a11y';
 import { signIn } from './support/signin';
 
 const WIDTHS = [320, 390, 768];
@@ -58,22 +60,33 @@ async function overflowAt(page: Page, path: string, width: number): Promise<numb
 }
 
 for (const { role, email } of ROLES) {
-	test(`no page scrolls sideways at 320, 390 or 768 px: ${role}`, async ({ page, baseURL }) => {
+	test(`every page passes axe at 390 and 1280 px and none scrolls sideways at 320, 390 or 768 px: ${role}`, async ({
+		page,
+		baseURL
+	}) => {
 		test.setTimeout(600_000);
 		await signIn(page, email);
 		const pages = await reachablePages(page, new URL(baseURL!).origin);
 		expect(pages.length).toBeGreaterThan(2);
 		const tooWide: string[] = [];
+		const violations: string[] = [];
 		for (const path of pages) {
 			for (const width of WIDTHS) {
 				const overflow = await overflowAt(page, path, width);
 				if (overflow > 0) tooWide.push(`${path} at ${width} px: ${overflow} px too wide`);
 			}
 			const name = `${role}-${path}`.replace(/[^a-z0-9]+/gi, '-').slice(0, 80);
+			for (const width of [390, 1280]) {
+				await page.setViewportSize({ width, height: 800 });
+				for (const line of await accessibilityViolations(page)) {
+					violations.push(`${path} at ${width} px: ${line}`);
+				}
+			}
 			await page.setViewportSize({ width: 390, height: 800 });
 			await page.screenshot({ path: `test-results/phone/${name}.png`, fullPage: true });
 		}
 		expect(tooWide).toEqual([]);
+		expect(violations, 'accessibility violations').toEqual([]);
 	});
 }
 
