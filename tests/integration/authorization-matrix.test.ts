@@ -11,6 +11,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { db } from '../../src/lib/server/db';
 import { accessLog, sessions, users } from '../../src/lib/server/db/schema';
 import { seedDemo } from '../../src/lib/server/demo/seed';
+import { deactivateMember } from '../../src/lib/server/people/service';
+import { callerFor, makePerson, makeSession } from './people-fixtures';
 import {
 	MATRIX as CORE_ROWS,
 	PEOPLE,
@@ -138,6 +140,7 @@ function pathOf(row: Row): string {
 let server: ViteDevServer;
 let origin: string;
 const cookies = new Map<Actor, string>();
+let deactivatedCookie = '';
 const userIds = new Map<Actor, string>();
 
 beforeAll(async () => {
@@ -163,6 +166,18 @@ beforeAll(async () => {
 		cookies.set(person.email as Actor, `authjs.session-token=${token}`);
 		userIds.set(person.email as Actor, person.id);
 	}
+	// A member of the demo studio who signed in and was then deactivated by the admin: the
+	// cookie she still holds must open nothing (the 'deactivated' pseudo-actor below).
+	const [studio] = await db()
+		.execute<{ id: string }>(sql`select id from organisations where name = 'Linden Row Studio'`)
+		.then((r) => r.rows);
+	const leaver = await makePerson([{ organisationId: studio!.id, role: 'instructor' }]);
+	const leaverToken = await makeSession(leaver.userId);
+	await deactivateMember(
+		await callerFor(userIds.get('admin@studio.example')!, studio!.id),
+		leaver.membershipIds[0]!
+	);
+	deactivatedCookie = `authjs.session-token=${leaverToken}`;
 	server = await createServer({
 		configFile: 'vite.config.ts',
 		logLevel: 'error',
@@ -178,9 +193,12 @@ afterAll(async () => {
 	await server?.close();
 });
 
-async function call(row: Row, actor: Actor): Promise<{ status: number; location: string }> {
+async function call(
+	row: Row,
+	actor: Actor | 'deactivated'
+): Promise<{ status: number; location: string }> {
 	const headers: Record<string, string> = { accept: 'text/html', origin };
-	const cookie = cookies.get(actor);
+	const cookie = actor === 'deactivated' ? deactivatedCookie : cookies.get(actor);
 	if (cookie) headers.cookie = cookie;
 	const path = pathOf(row);
 	const init: RequestInit = { method: 'GET', headers, redirect: 'manual' };
@@ -246,6 +264,19 @@ describe('authorization matrix', () => {
 				} else if (watched && (await refusalsOf(watched)) <= before) {
 					wrong.push(`${row.call} ${pathOf(row)} as ${actor}: refused but not in the access log`);
 				}
+			}
+		}
+		expect(wrong).toEqual([]);
+	}, 300_000);
+
+	it('a deactivated member’s old session cookie gets what an anonymous visitor gets, everywhere', async () => {
+		const wrong: string[] = [];
+		for (const row of MATRIX) {
+			const got = await call(row, 'deactivated');
+			if (!matches(row.expect.anonymous, got)) {
+				wrong.push(
+					`${row.call} ${pathOf(row)}: expected ${row.expect.anonymous}, got ${got.status} ${got.location}`
+				);
 			}
 		}
 		expect(wrong).toEqual([]);
