@@ -1,5 +1,6 @@
 import { expect, test } from './support/test';
 import { expectAccessible } from './a11y';
+import { signIn } from './support/signin';
 
 test('the landing page says what Seamwell is for, with the caution, and is accessible', async ({
 	page
@@ -60,4 +61,51 @@ test('JSON and error responses carry the security headers too', async ({ request
 		expect(headers['x-content-type-options'], path).toBe('nosniff');
 		expect(headers['content-security-policy'], path).toBeTruthy();
 	}
+});
+
+test('every kind of signed-in answer carries the security headers and no-store: page, JSON, problem, PDF, document, CSV', async ({
+	page
+}) => {
+	test.setTimeout(120_000);
+	const check = (what: string, headers: Record<string, string>) => {
+		expect(headers['x-content-type-options'], what).toBe('nosniff');
+		expect(headers['x-frame-options'], what).toBe('DENY');
+		expect(headers['content-security-policy'], what).toContain("frame-ancestors 'none'");
+		expect(headers['referrer-policy'], what).toBe('strict-origin-when-cross-origin');
+		expect(headers['cache-control'], what).toContain('no-store');
+	};
+	await signIn(page, 'physio@clinic.example');
+	const api = page.request;
+	check('page', (await api.get('/referrals')).headers());
+	const list = await api.get('/api/v1/referrals');
+	check('JSON', list.headers());
+	const problem = await api.get('/api/v1/referrals?limit=0');
+	expect(problem.status()).toBe(422);
+	expect(problem.headers()['content-type']).toContain('application/problem+json');
+	check('problem', problem.headers());
+	// A referral of the clinic's that carries a document: its letter (PDF) and the document.
+	let checkedDocument = false;
+	for (const referral of ((await list.json()) as { items: Array<{ id: string }> }).items) {
+		const documents = (await (
+			await api.get(`/api/v1/referrals/${referral.id}/documents`)
+		).json()) as { items?: Array<{ id: string }> };
+		const first = documents.items?.[0];
+		if (!first) continue;
+		const letter = await api.get(`/api/v1/referrals/${referral.id}/letter`);
+		expect(letter.status()).toBe(200);
+		check('letter', letter.headers());
+		const file = await api.get(`/api/v1/documents/${first.id}`);
+		expect(file.status()).toBe(200);
+		check('document', file.headers());
+		checkedDocument = true;
+		break;
+	}
+	expect(checkedDocument, 'the demo clinic holds a referral with a document').toBe(true);
+
+	await page.context().clearCookies();
+	await signIn(page, 'admin@clinic.example');
+	const csv = await page.request.get('/api/v1/audit?format=csv&limit=5');
+	expect(csv.status()).toBe(200);
+	expect(csv.headers()['content-type']).toContain('text/csv');
+	check('CSV', csv.headers());
 });
