@@ -105,19 +105,19 @@ const mail = (to: string) => ({
 });
 
 describe('the mail outbox', () => {
-	it('a queued mail is delivered within a second or two (woken by NOTIFY, not the poll)', async () => {
+	it('a queued mail is delivered without waiting for the poll (woken by NOTIFY)', async () => {
 		const { s, smtpPort, httpPort } = await setUp();
+		// The poll is a minute away: delivery well before it can only come from the NOTIFY.
+		// No tight timing: a busy machine may take seconds, never the poll's minute.
 		const w = worker(s.app, sender(smtpPort), { pollMs: 60_000 });
 		await w.ready;
 		const to = uniqueAddress('prompt');
-		const started = Date.now();
 		await s.app.transaction((tx) => queueMail(tx, mail(to)));
 		await until(
 			() => messagesTo(httpPort, to),
 			(m) => m.length === 1,
-			2_000
+			20_000
 		);
-		expect(Date.now() - started).toBeLessThan(2_000);
 		expect((await states(s.app))[0]).toMatchObject({ state: 'sent', attempts: 1 });
 	});
 
