@@ -1,28 +1,10 @@
 import { z } from 'zod';
+import { requiredText, nullableText } from '$lib/schemas/text';
 import { CLEARANCE_LEVELS, MOVEMENT_CATEGORIES, type MovementCategory } from '$lib/domain/movement';
 import { HERNIA_FINDINGS, MEASUREMENT_METHODS, MEASUREMENT_POSITIONS } from './types';
 
 // Input schemas for assessments and clearances, shared by the JSON API, the form actions and
 // the browser (so this module stays free of server imports).
-
-const text = (max = 4000) =>
-	z
-		.string({ error: 'must be text' })
-		.max(max, `at most ${max} characters`)
-		.refine((s) => !s.includes('\u0000'), 'must not contain NUL characters');
-
-const requiredText = (max = 4000) =>
-	text(max)
-		.transform((s) => s.trim())
-		.pipe(z.string().min(1, 'required'));
-
-const optionalText = (max = 4000) =>
-	text(max)
-		.transform((s) => s.trim())
-		.transform((s) => (s === '' ? null : s))
-		.nullable()
-		.optional()
-		.transform((s) => s ?? null);
 
 export const MM_MAX = 150;
 export const DISTANCE_MAX_CM = 15;
@@ -109,8 +91,8 @@ export const assessmentSchema = z.object({
 		.min(1, 'record at least one measurement point')
 		.max(12, 'at most 12 measurement points'),
 	hernia: z.enum(HERNIA_FINDINGS, { error: `must be one of ${HERNIA_FINDINGS.join(', ')}` }),
-	pelvicFloor: optionalText(),
-	plan: requiredText()
+	pelvicFloor: nullableText(4000),
+	plan: requiredText(4000)
 });
 export type AssessmentData = z.infer<typeof assessmentSchema>;
 
@@ -145,7 +127,7 @@ export const clearanceSchema = z
 			)
 			.optional()
 			.transform((m) => m ?? {}),
-		notes: optionalText(),
+		notes: nullableText(4000),
 		reviewOn: z.iso.date({ error: 'must be a date (YYYY-MM-DD)' })
 	})
 	.superRefine((c, ctx) => {

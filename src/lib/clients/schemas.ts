@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text, requiredText, optionalText } from '$lib/schemas/text';
 import {
 	DEPTHS,
 	FINGER_WIDTH_MAX,
@@ -28,23 +29,6 @@ const FUTURE_GRACE_MS = 5 * 60_000;
 const MS_PER_DAY = 86_400_000;
 
 /** Strings refuse NUL characters, which PostgreSQL cannot store in text. */
-const text = (max = 2000) =>
-	z
-		.string({ error: 'must be text' })
-		.max(max, `at most ${max} characters`)
-		.refine((s) => !s.includes('\u0000'), 'must not contain NUL characters');
-
-const optionalText = (max = 2000) =>
-	text(max)
-		.transform((s) => s.trim())
-		.transform((s) => (s === '' ? null : s))
-		.nullable()
-		.optional();
-
-const requiredText = (max = 200) =>
-	text(max)
-		.transform((s) => s.trim())
-		.pipe(z.string().min(1, 'required'));
 
 const number = (what = 'a number') =>
 	z.number({

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text, requiredText, optionalText } from '$lib/schemas/text';
 import { MOVEMENT_CATEGORIES } from '../domain/movement';
 import { POSITIONS } from '../domain/exercises/library';
 
@@ -6,24 +7,6 @@ import { POSITIONS } from '../domain/exercises/library';
 
 export const MAX_PLAN_CLIENTS = 30;
 export const MAX_PLAN_ITEMS = 60;
-
-const text = (max = 2000) =>
-	z
-		.string({ error: 'must be text' })
-		.max(max, `at most ${max} characters`)
-		.refine((s) => !s.includes('\u0000'), 'must not contain NUL characters');
-
-const requiredText = (max = 2000) =>
-	text(max)
-		.transform((s) => s.trim())
-		.pipe(z.string().min(1, 'required'));
-
-const optionalText = (max = 500) =>
-	text(max)
-		.transform((s) => s.trim())
-		.transform((s) => (s === '' ? null : s))
-		.nullable()
-		.optional();
 
 /** A shipped slug or a studio exercise's UUID. */
 export const exerciseId = text(120).pipe(

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text, requiredText, nullableText } from '$lib/schemas/text';
 import { SHARE_SCOPES } from '$lib/domain/consent';
 import { RED_FLAGS } from '$lib/domain/red-flags';
 import { REFERRAL_STATES, TRANSITION_TARGETS, URGENCIES } from '$lib/domain/referral';
@@ -6,25 +7,7 @@ import { REFERRAL_STATES, TRANSITION_TARGETS, URGENCIES } from '$lib/domain/refe
 // Input schemas for consents and referrals, shared by the JSON API, the form actions and the
 // browser (so this module stays free of server imports).
 
-const text = (max = 2000) =>
-	z
-		.string({ error: 'must be text' })
-		.max(max, `at most ${max} characters`)
-		.refine((s) => !s.includes('\u0000'), 'must not contain NUL characters');
-
-const requiredText = (max = 2000) =>
-	text(max)
-		.transform((s) => s.trim())
-		.pipe(z.string().min(1, 'required'));
-
 /** Empty or missing is null; otherwise trimmed text. */
-const optionalText = (max = 2000) =>
-	text(max)
-		.transform((s) => s.trim())
-		.transform((s) => (s === '' ? null : s))
-		.nullable()
-		.optional()
-		.transform((s) => s ?? null);
 
 const id = (what: string) => z.uuid({ error: `must be ${what} id` });
 
@@ -81,7 +64,7 @@ export const transitionSchema = z.object({
 	to: z.enum(TRANSITION_TARGETS as [string, ...string[]], {
 		error: `must be one of ${TRANSITION_TARGETS.join(', ')}`
 	}),
-	reason: optionalText(4000)
+	reason: nullableText(4000)
 });
 export type TransitionData = z.infer<typeof transitionSchema>;
 
