@@ -157,6 +157,16 @@ test('the instructor dashboard counts clients to refer and to screen, linking to
 		'Rosa Delgado'
 	]);
 	await expect(page.locator('#needs')).toHaveValue('screening');
+
+	// Every card is built: the plans card lists the studio's demo plans and opens one.
+	await page.goBack();
+	await expect(page.getByText('Not built yet')).toHaveCount(0);
+	const demoClass = 'Tuesday postnatal mat class'; // src/lib/server/demo/plans.ts
+	const plans = page.locator('section', {
+		has: page.getByRole('heading', { name: 'Session plans' })
+	});
+	await plans.getByRole('link', { name: demoClass }).click();
+	await expect(page.getByRole('heading', { level: 1, name: demoClass })).toBeVisible();
 });
 
 test('the instructor dashboard counts referrals by state, linking to each list', async ({
