@@ -18,6 +18,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
 	'client.read': 'Opened a client record',
 	'client.listed': 'Listed clients',
 	'client.updated': 'Changed a client record',
+	'client.access_read': 'Read who accessed her record',
 	'screening.recorded': 'Recorded a screening',
 	'screening.read': 'Read screenings',
 	'consent.given': 'Consent given',

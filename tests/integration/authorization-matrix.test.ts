@@ -25,6 +25,7 @@ import { CLEARANCE_ROWS } from './matrix-rows/clearance';
 import { CLIENT_ROWS } from './matrix-rows/clients';
 import { DOCUMENT_ROWS } from './matrix-rows/documents';
 import { PLAN_ROWS } from './matrix-rows/plans';
+import { PRIVACY_ROWS } from './matrix-rows/privacy';
 import { REFERRAL_ROWS } from './matrix-rows/referrals';
 
 // The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
@@ -35,7 +36,8 @@ const MATRIX: Row[] = [
 	...DOCUMENT_ROWS,
 	...CLEARANCE_ROWS,
 	...PLAN_ROWS,
-	...AUDIT_ROWS
+	...AUDIT_ROWS,
+	...PRIVACY_ROWS
 ];
 
 const ROUTES = 'src/routes';

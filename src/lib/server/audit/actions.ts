@@ -16,6 +16,7 @@ export const AUDIT_ACTIONS = [
 	'client.read',
 	'client.listed',
 	'client.updated',
+	'client.access_read',
 	'screening.recorded',
 	'screening.read',
 	'consent.given',
