@@ -19,6 +19,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
 	'client.listed': 'Listed clients',
 	'client.updated': 'Changed a client record',
 	'client.access_read': 'Read who accessed her record',
+	'client.exported': 'Downloaded her data',
 	'screening.recorded': 'Recorded a screening',
 	'screening.read': 'Read screenings',
 	'consent.given': 'Consent given',

@@ -8,5 +8,6 @@ const api = (table: Row['expect']): Row['expect'] => ({ ...table, anonymous: 401
 
 export const PRIVACY_ROWS: Row[] = [
 	{ route: '/(app)/privacy', call: 'GET', expect: only(CLIENTS, 200) },
-	{ route: '/api/v1/me/access', call: 'GET', expect: api(only(CLIENTS, 200)) }
+	{ route: '/api/v1/me/access', call: 'GET', expect: api(only(CLIENTS, 200)) },
+	{ route: '/api/v1/me/export', call: 'GET', expect: api(only(CLIENTS, 200)) }
 ];

@@ -17,6 +17,7 @@ export const AUDIT_ACTIONS = [
 	'client.listed',
 	'client.updated',
 	'client.access_read',
+	'client.exported',
 	'screening.recorded',
 	'screening.read',
 	'consent.given',

@@ -12,6 +12,7 @@ import {
 	type Person
 } from '../referrals/testing/fixtures';
 import { listOwnAccess } from './access';
+import { exportOwnData } from './export';
 
 // The client's "who accessed my record" against the real database: reads by her instructor
 // and by the physiotherapist appear with their organisation and role; her own reads are
@@ -93,6 +94,18 @@ describe('who accessed my record', () => {
 	it('is not there for someone with no client record (404)', async () => {
 		const refused = await listOwnAccess(instructor.caller, { limit: 10 }).catch((e: unknown) => e);
 		expect(refused).toBeInstanceOf(ProblemError);
+		expect((refused as ProblemError).toResponse().status).toBe(404);
+	});
+
+	it('exports her whole record as one document, logged, and nothing of another client', async () => {
+		const data = await exportOwnData(her.caller);
+		expect(data).toMatchObject({ format: 'seamwell.client-export', version: 1 });
+		expect(data.client.id).toBe(her.clientId);
+		expect(data.referrals).toHaveLength(1);
+		expect(data.consents.grants.length).toBeGreaterThan(0);
+		expect(data.accessLog.some((i) => i.action === 'client.exported' && i.you)).toBe(true);
+		expect(JSON.stringify(data)).not.toContain(other.clientId);
+		const refused = await exportOwnData(instructor.caller).catch((e: unknown) => e);
 		expect((refused as ProblemError).toResponse().status).toBe(404);
 	});
 });

@@ -1,0 +1,65 @@
+import { recordAccess } from '../audit';
+import { readClearance } from '../clearance/clearance';
+import { getOwnRecord } from '../clients/service';
+import { mayReadOwnRecord } from '../clients/policy';
+import { getConsentOverview } from '../consents/service';
+import { refuse, type Caller } from '../context';
+import { db } from '../db';
+import { notFound } from '../http/problem';
+import { plansForMe } from '../plans/service';
+import { listClientReferrals } from '../referrals/for-client';
+import { listOwnAccess, type OwnAccessItem } from './access';
+
+// "Download my data" as one JSON document (GDPR Art. 15 and 20): everything Seamwell shows
+// her about herself, read through the same services and policies as her own screens, so the
+// export can never hold more than she may see. Each field is described in the README
+// ("Your data as JSON"). The export itself is logged as client.exported.
+
+export const EXPORT_FORMAT = 'seamwell.client-export';
+export const EXPORT_VERSION = 1;
+
+/** Her whole access list, walked page by page (it is hers alone, so it stays small). */
+async function wholeAccessList(caller: Caller): Promise<OwnAccessItem[]> {
+	const items: OwnAccessItem[] = [];
+	let cursor: string | undefined;
+	do {
+		const page = await listOwnAccess(caller, { limit: 100, cursor });
+		items.push(...page.items);
+		cursor = page.nextCursor ?? undefined;
+	} while (cursor);
+	return items;
+}
+
+/** Policy: the client herself (mayReadOwnRecord). Audit: client.exported. */
+export async function exportOwnData(caller: Caller, now = new Date()) {
+	const actor = caller.actor;
+	if (!mayReadOwnRecord(actor)) {
+		return refuse(caller, 'client.exported', notFound('You have no client record in Seamwell.'));
+	}
+	const record = await getOwnRecord(caller);
+	const [consents, referrals, clearance, inClass] = await Promise.all([
+		getConsentOverview(caller),
+		listClientReferrals(caller, record.client.id),
+		readClearance(caller, record.client.id),
+		plansForMe(caller)
+	]);
+	await recordAccess(db(), caller.access, {
+		action: 'client.exported',
+		outcome: 'success',
+		target: { type: 'client', id: record.client.id },
+		clientId: record.client.id
+	});
+	const accessLog = await wholeAccessList(caller);
+	return {
+		format: EXPORT_FORMAT,
+		version: EXPORT_VERSION,
+		exportedAt: now.toISOString(),
+		client: record.client,
+		screenings: record.history,
+		consents,
+		referrals,
+		clearance,
+		inClass,
+		accessLog
+	};
+}
