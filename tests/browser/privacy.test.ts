@@ -47,5 +47,17 @@ for (const [label, width, height] of [
 		};
 		expect(data.format).toBe('seamwell.client-export');
 		expect(data.client.name).toBe('Hana Lindqvist');
+
+		const [fhirDownload] = await Promise.all([
+			page.waitForEvent('download'),
+			page.getByRole('link', { name: 'Download as FHIR R4' }).click()
+		]);
+		const bundle = JSON.parse(await readFile((await fhirDownload.path())!, 'utf8')) as {
+			resourceType: string;
+			type: string;
+			entry: Array<{ resource: { resourceType: string } }>;
+		};
+		expect(bundle).toMatchObject({ resourceType: 'Bundle', type: 'collection' });
+		expect(bundle.entry[0]!.resource.resourceType).toBe('Patient');
 	});
 }

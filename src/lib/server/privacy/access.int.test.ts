@@ -13,6 +13,8 @@ import {
 } from '../referrals/testing/fixtures';
 import { listOwnAccess } from './access';
 import { exportOwnData } from './export';
+import { buildClientBundle } from './fhir';
+import { Fhir } from 'fhir';
 
 // The client's "who accessed my record" against the real database: reads by her instructor
 // and by the physiotherapist appear with their organisation and role; her own reads are
@@ -107,5 +109,22 @@ describe('who accessed my record', () => {
 		expect(JSON.stringify(data)).not.toContain(other.clientId);
 		const refused = await exportOwnData(instructor.caller).catch((e: unknown) => e);
 		expect((refused as ProblemError).toResponse().status).toBe(404);
+	});
+
+	it('her real record as a FHIR R4 Bundle validates (referral, consent, patient)', async () => {
+		const data = await exportOwnData(her.caller);
+		const bundle = buildClientBundle(
+			{
+				client: data.client,
+				screenings: data.screenings.items,
+				consents: data.consents.grants,
+				referrals: data.referrals
+			},
+			'https://seamwell.example'
+		);
+		const types = bundle.entry.map((e) => e.resource.resourceType);
+		expect(types).toEqual(expect.arrayContaining(['Patient', 'ServiceRequest', 'Task', 'Consent']));
+		const result = new Fhir().validate(bundle);
+		expect(result.messages.filter((m) => m.severity === 'error')).toEqual([]);
 	});
 });

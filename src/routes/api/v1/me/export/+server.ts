@@ -2,19 +2,43 @@ import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireApiCaller } from '$lib/server/context';
 import { apiHandler, readQuery } from '$lib/server/http/api';
+import { config } from '$lib/server/config';
 import { exportOwnData } from '$lib/server/privacy/export';
+import { buildClientBundle } from '$lib/server/privacy/fhir';
 import type { RequestHandler } from './$types';
 
 const exportQuery = z.strictObject({
-	format: z.enum(['json'], { error: 'must be json' }).default('json')
+	format: z.enum(['json', 'fhir'], { error: 'must be json or fhir' }).default('json')
 });
 
-/** Everything Seamwell holds about the signed-in client, as one JSON document (a download). */
+/**
+ * Everything Seamwell holds about the signed-in client, as a download: one JSON document
+ * (`format=json`) or a FHIR R4 Bundle of type collection (`format=fhir`).
+ */
 export const GET: RequestHandler = apiHandler(async ({ locals, url }) => {
 	const caller = requireApiCaller(locals);
-	readQuery(url, exportQuery);
+	const { format } = readQuery(url, exportQuery);
 	const data = await exportOwnData(caller);
 	const day = data.exportedAt.slice(0, 10);
+	if (format === 'fhir') {
+		const bundle = buildClientBundle(
+			{
+				client: data.client,
+				screenings: data.screenings.items,
+				consents: data.consents.grants,
+				referrals: data.referrals
+			},
+			config().ORIGIN,
+			new Date(data.exportedAt)
+		);
+		return new Response(JSON.stringify(bundle), {
+			headers: {
+				'Content-Type': 'application/fhir+json; charset=utf-8',
+				'Content-Disposition': `attachment; filename="seamwell-my-data-${day}.fhir.json"`,
+				'Cache-Control': 'no-store'
+			}
+		});
+	}
 	return json(data, {
 		headers: {
 			'Content-Disposition': `attachment; filename="seamwell-my-data-${day}.json"`,

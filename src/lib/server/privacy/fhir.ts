@@ -1,0 +1,221 @@
+// The client's data as a FHIR R4 Bundle (type `collection`), built by pure functions from the
+// same export document as the JSON download. Terms with no standard code use Seamwell's own
+// code system, whose canonical URL is a page of the app describing it (/fhir/CodeSystem/…).
+// Checked in fhir.test.ts with the `fhir` package (HL7 R4 StructureDefinitions, offline) plus
+// our own assertions for what it does not check (Consent ppc-1; references resolve).
+import { SITES, type Site } from '$lib/domain/sites';
+import type { ReferralState } from '$lib/domain/referral';
+import type { ConsentStatus } from '$lib/domain/consent';
+import type { ClientDetail, ScreeningView } from '$lib/clients/types';
+import type { ConsentGrantView } from '../consents/service';
+import type { ClientReferral } from '../referrals/for-client';
+
+export type FhirResource = { resourceType: string; id: string } & Record<string, unknown>;
+export interface FhirBundle {
+	resourceType: 'Bundle';
+	type: 'collection';
+	timestamp: string;
+	entry: Array<{ fullUrl: string; resource: FhirResource }>;
+}
+
+/** Seamwell's own code system (sites, measures, scopes), described at this URL. */
+export const codeSystemUrl = (origin: string) => `${origin}/fhir/CodeSystem/seamwell`;
+const UCUM = 'http://unitsofmeasure.org';
+
+/**
+ * Referral state → ServiceRequest.status (HL7 FHIR R4 request-status; REFERENCES.md). An
+ * instructor proposes care, she does not order it: intent is always `proposal`.
+ */
+export const SERVICE_REQUEST_STATUS: Record<ReferralState, string> = {
+	draft: 'draft',
+	sent: 'active',
+	accepted: 'active',
+	assessed: 'active',
+	declined: 'revoked',
+	closed: 'completed',
+	withdrawn: 'revoked'
+};
+
+/** The clinic's answer as a Task (R4 task-status); states with no answer yet have no Task. */
+export const TASK_STATUS: Partial<Record<ReferralState, string>> = {
+	sent: 'requested',
+	accepted: 'accepted',
+	assessed: 'in-progress',
+	declined: 'rejected',
+	closed: 'completed',
+	withdrawn: 'cancelled'
+};
+
+/** Our consent status → Consent.status (R4 consent-state-codes: "withdrawn" is not one). */
+export const CONSENT_STATUS: Record<ConsentStatus, string> = {
+	active: 'active',
+	not_started: 'proposed',
+	ended: 'inactive',
+	withdrawn: 'inactive'
+};
+
+const SITE_INDEX: Record<Site, number> = { above_navel: 1, at_navel: 2, below_navel: 3 };
+
+export interface FhirExportInput {
+	client: ClientDetail;
+	screenings: ScreeningView[];
+	consents: ConsentGrantView[];
+	referrals: ClientReferral[];
+}
+
+export function patientOf(client: ClientDetail): FhirResource {
+	return {
+		resourceType: 'Patient',
+		id: client.id,
+		name: [{ text: client.name }],
+		...(client.email ? { telecom: [{ system: 'email', value: client.email }] } : {})
+	};
+}
+
+export function siteObservations(
+	screening: ScreeningView,
+	patientId: string,
+	origin: string
+): FhirResource[] {
+	const system = codeSystemUrl(origin);
+	return SITES.map((site) => {
+		const m = screening.sites[site];
+		const component: Array<Record<string, unknown>> = [
+			{
+				code: { coding: [{ system, code: 'gap-depth', display: 'Depth of the gap' }] },
+				valueCodeableConcept: { coding: [{ system, code: `depth-${m.depth}` }], text: m.depth }
+			},
+			{
+				code: { coding: [{ system, code: 'midline-tension', display: 'Midline tension' }] },
+				valueCodeableConcept: {
+					coding: [{ system, code: `tension-${m.tension}` }],
+					text: m.tension
+				}
+			},
+			{
+				code: { coding: [{ system, code: 'doming', display: 'Doming on effort' }] },
+				valueBoolean: m.doming
+			}
+		];
+		if (m.widthMm != null) {
+			component.unshift({
+				code: { coding: [{ system, code: 'gap-width-mm', display: 'Gap width, measured' }] },
+				valueQuantity: { value: m.widthMm, unit: 'mm', system: UCUM, code: 'mm' }
+			});
+		}
+		return {
+			resourceType: 'Observation',
+			id: `${screening.id}-${SITE_INDEX[site]}`,
+			status: 'final',
+			category: [
+				{
+					coding: [
+						{
+							system: 'http://terminology.hl7.org/CodeSystem/observation-category',
+							code: 'exam'
+						}
+					]
+				}
+			],
+			code: {
+				coding: [{ system, code: 'gap-width-fingers', display: 'Midline gap, finger-width test' }],
+				text: 'Midline gap width (finger widths, screening by a movement instructor)'
+			},
+			subject: { reference: `Patient/${patientId}` },
+			effectiveDateTime: screening.takenAt,
+			bodySite: { coding: [{ system, code: site }], text: site.replaceAll('_', ' ') },
+			valueQuantity: {
+				value: m.widthFingers,
+				unit: 'finger widths',
+				system: UCUM,
+				code: '{finger-width}'
+			},
+			component
+		};
+	});
+}
+
+export function referralResources(referral: ClientReferral, patientId: string): FhirResource[] {
+	const request: FhirResource = {
+		resourceType: 'ServiceRequest',
+		id: referral.id,
+		status: SERVICE_REQUEST_STATUS[referral.state],
+		intent: 'proposal',
+		code: { text: 'Pelvic-health physiotherapy assessment' },
+		subject: { reference: `Patient/${patientId}` },
+		authoredOn: referral.sentAt ?? referral.createdAt,
+		performer: [{ display: referral.clinicName }]
+	};
+	const taskStatus = TASK_STATUS[referral.state];
+	if (!taskStatus) return [request];
+	const task: FhirResource = {
+		resourceType: 'Task',
+		id: `${referral.id}-answer`,
+		status: taskStatus,
+		intent: 'order',
+		focus: { reference: `ServiceRequest/${referral.id}` },
+		for: { reference: `Patient/${patientId}` },
+		lastModified: referral.changedAt,
+		owner: { display: referral.clinicName },
+		...(referral.clinicNote ? { note: [{ text: referral.clinicNote }] } : {})
+	};
+	return [request, task];
+}
+
+export function consentOf(
+	grant: ConsentGrantView,
+	patientId: string,
+	origin: string
+): FhirResource {
+	const end = grant.withdrawnAt ?? grant.endsAt;
+	return {
+		resourceType: 'Consent',
+		id: grant.id,
+		status: CONSENT_STATUS[grant.status],
+		scope: {
+			coding: [
+				{ system: 'http://terminology.hl7.org/CodeSystem/consentscope', code: 'patient-privacy' }
+			]
+		},
+		category: [{ coding: [{ system: 'http://loinc.org', code: '59284-0' }] }],
+		patient: { reference: `Patient/${patientId}` },
+		dateTime: grant.startsAt,
+		organization: [{ display: grant.clinicName }],
+		// ppc-1: a policy or a policyRule. Opt-in: nothing is shared unless she says so.
+		policyRule: {
+			coding: [{ system: 'http://terminology.hl7.org/CodeSystem/v3-ActCode', code: 'OPTIN' }]
+		},
+		provision: {
+			type: 'permit',
+			period: { start: grant.startsAt, ...(end ? { end } : {}) },
+			class: grant.scopes.map((scope) => ({
+				system: codeSystemUrl(origin),
+				code: `share-${scope}`
+			}))
+		}
+	};
+}
+
+/** Every resource of hers, each once, in one collection. */
+export function buildClientBundle(
+	input: FhirExportInput,
+	origin: string,
+	now = new Date()
+): FhirBundle {
+	const patientId = input.client.id;
+	const resources: FhirResource[] = [
+		patientOf(input.client),
+		...input.screenings.flatMap((s) => siteObservations(s, patientId, origin)),
+		...input.referrals.flatMap((r) => referralResources(r, patientId)),
+		...input.consents.map((c) => consentOf(c, patientId, origin))
+	];
+	return {
+		resourceType: 'Bundle',
+		type: 'collection',
+		timestamp: now.toISOString(),
+		entry: resources.map((resource) => ({
+			fullUrl: `${origin}/fhir/${resource.resourceType}/${resource.id}`,
+			resource
+		}))
+	};
+}
