@@ -95,7 +95,10 @@ function customToExercise(row: typeof studioExercises.$inferSelect): Exercise {
 }
 
 /** The shipped library and the studio's own exercises, shipped first. */
-export async function libraryFor(executor: Executor, studioIds: readonly string[]): Promise<Exercise[]> {
+export async function libraryFor(
+	executor: Executor,
+	studioIds: readonly string[]
+): Promise<Exercise[]> {
 	if (studioIds.length === 0) return [...SHIPPED_EXERCISES];
 	const rows = await executor
 		.select()

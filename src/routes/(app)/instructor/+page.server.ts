@@ -4,14 +4,20 @@ import { countClients } from '$lib/server/clients/service';
 import { forPage } from '$lib/server/http/page';
 import { summariseArea } from '$lib/server/people/service';
 import { countReferrals, RECENT_ANSWER_DAYS } from '$lib/server/referrals/service';
+import { listFollowUps } from '$lib/server/self-care/service';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
 	// The area first: someone who is no instructor gets the 404 before anything is counted.
 	const summary = await forPage(summariseArea(caller, 'instructor'));
-	const [clients, referrals, reviews] = await forPage(
-		Promise.all([countClients(caller), countReferrals(caller), listClearanceReviews(caller)])
+	const [clients, referrals, reviews, followUps] = await forPage(
+		Promise.all([
+			countClients(caller),
+			countReferrals(caller),
+			listClearanceReviews(caller),
+			listFollowUps(caller)
+		])
 	);
-	return { summary, clients, referrals, reviews, recentDays: RECENT_ANSWER_DAYS };
+	return { summary, clients, referrals, reviews, followUps, recentDays: RECENT_ANSWER_DAYS };
 };
