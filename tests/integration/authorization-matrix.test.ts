@@ -24,6 +24,7 @@ import { CLIENT_ROWS } from './matrix-rows/clients';
 import { DOCUMENT_ROWS } from './matrix-rows/documents';
 import { PLAN_ROWS } from './matrix-rows/plans';
 import { REFERRAL_ROWS } from './matrix-rows/referrals';
+import { SELF_CARE_ROWS } from './matrix-rows/self-care';
 
 // The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
 const MATRIX: Row[] = [
@@ -33,7 +34,8 @@ const MATRIX: Row[] = [
 	...DOCUMENT_ROWS,
 	...CLEARANCE_ROWS,
 	...PLAN_ROWS,
-	...AUDIT_ROWS
+	...AUDIT_ROWS,
+	...SELF_CARE_ROWS
 ];
 
 const ROUTES = 'src/routes';

@@ -1,3 +1,4 @@
+import { fail } from '@sveltejs/kit';
 import { unsubscribeFromReminders } from '$lib/server/self-care/service';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -15,6 +16,6 @@ export const actions: Actions = {
 			String(form.get('c') ?? ''),
 			String(form.get('t') ?? '')
 		);
-		return { ok };
+		return ok ? { ok } : fail(400, { ok });
 	}
 };

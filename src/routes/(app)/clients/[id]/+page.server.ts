@@ -72,6 +72,9 @@ export const actions: Actions = {
 		await forPage(assertMayWriteClient(caller, id));
 		const form = await request.formData();
 		const ids = form.getAll('exerciseId').map(String);
+		// The page's form always sends its rows; a form without them is not that form.
+		if (ids.length === 0)
+			return fail(400, { homePracticeError: 'Choose the exercises.', items: [] });
 		const reps = form.getAll('reps').map(String);
 		const notes = form.getAll('note').map(String);
 		const items = ids
