@@ -109,7 +109,7 @@ test('the whole self-check on a 390 px phone, sharing, and marking a practice do
 	const instructor = await personPage(browser, 'instructor@studio.example', 1280);
 	await instructor.goto(`/clients/${clientId}`);
 	await expect(instructor.getByRole('heading', { name: 'Between classes' })).toBeVisible();
-	await expect(instructor.getByTestId('self-checks')).toContainText('Show your instructor');
+	await expect(instructor.getByTestId('self-checks')).toContainText('She was asked to show you');
 	await expect(instructor.getByTestId('adherence')).toContainText('1 practice marked done');
 	await instructor.screenshot({ path: `/tmp/selfcheck-instructor-1280.png`, fullPage: true });
 });
