@@ -13,7 +13,9 @@ import {
 	accessLog,
 	clearances,
 	clients,
+	homePracticeReminders,
 	homePractices,
+	outbox,
 	selfChecks,
 	studioExercises
 } from '../db/schema';
@@ -30,8 +32,12 @@ import {
 	listOwnSelfChecks,
 	recordPracticeSession,
 	recordSelfCheck,
+	sendPracticeReminders,
 	setHomePractice,
-	setSelfCheckSharing
+	setPracticeReminder,
+	setSelfCheckSharing,
+	unsubscribeFromReminders,
+	unsubscribeToken
 } from './service';
 
 // Self-checks and home practice against the real database: sharing on and off (the studio's
@@ -328,5 +334,44 @@ describe('home practice', () => {
 		const studioView = await clientSelfCare(alice, gia.id);
 		expect(studioView.practice.items[1]).toMatchObject({ paused: true });
 		expect(studioView.practice.perWeek).toEqual([0, 0, 0, 0]);
+	});
+});
+
+describe('practice reminders', () => {
+	it('sends once when due, with no name or health detail, and stops from the signed link', async () => {
+		const ivy = await clientPerson();
+		const [record] = await db().select().from(clients).where(eq(clients.id, ivy.id));
+		const state = await setPracticeReminder(ivy.caller, true);
+		expect(state.on).toBe(true);
+		const due = state.nextDueOn!;
+		// Not yet due the day before; due on the day, and only once.
+		const before = new Date(Date.parse(`${due}T00:00:00Z`) - DAY).toISOString().slice(0, 10);
+		await sendPracticeReminders(db(), before);
+		await sendPracticeReminders(db(), due);
+		await sendPracticeReminders(db(), due);
+		const mails = await db()
+			.select()
+			.from(outbox)
+			.where(and(eq(outbox.to, ivy.caller.actor.email), eq(outbox.kind, 'practice.reminder')));
+		expect(mails).toHaveLength(1);
+		const text = mails[0]!.text;
+		expect(text).not.toContain(record!.name);
+		expect(text).not.toMatch(/finger|leak|bleed|symptom/i);
+		expect(text).toContain(`/reminders/unsubscribe?c=${ivy.id}&t=${unsubscribeToken(ivy.id)}`);
+
+		expect(await unsubscribeFromReminders(ivy.id, 'forged')).toBe(false);
+		expect(
+			await db()
+				.select()
+				.from(homePracticeReminders)
+				.where(eq(homePracticeReminders.clientId, ivy.id))
+		).toHaveLength(1);
+		expect(await unsubscribeFromReminders(ivy.id, unsubscribeToken(ivy.id))).toBe(true);
+		expect(
+			await db()
+				.select()
+				.from(homePracticeReminders)
+				.where(eq(homePracticeReminders.clientId, ivy.id))
+		).toEqual([]);
 	});
 });
