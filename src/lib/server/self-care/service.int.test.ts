@@ -20,6 +20,7 @@ import {
 	studioExercises
 } from '../db/schema';
 import { ProblemError } from '../http/problem';
+import { loadEffectiveLimits } from '../clearance/limits';
 import {
 	callerFor,
 	makeOrganisation,
@@ -294,6 +295,15 @@ describe('home practice', () => {
 		const shared = await clientSelfCare(alice, fay.id);
 		expect(shared.practice.items.map((i) => i.paused)).toEqual([false, true]);
 		expect(shared.practice.feltWrong[0]?.symptoms).toEqual(['leakage']);
+		// The plans and the client list read the same limits, with her shared reports.
+		const today = new Date().toISOString().slice(0, 10);
+		const studioSide = await loadEffectiveLimits(db(), [fay.id], today, { selfReports: 'shared' });
+		expect(studioSide.get(fay.id)!.categories.impact).toMatchObject({
+			level: 'hold',
+			by: 'self_report'
+		});
+		const clinicSide = await loadEffectiveLimits(db(), [fay.id], today);
+		expect(clinicSide.get(fay.id)!.categories.impact.level).toBe('no_limit');
 		await expectProblem(
 			setHomePractice(alice, fay.id, {
 				items: [{ exerciseId: 'jog-on-the-spot', reps: null, note: null }]

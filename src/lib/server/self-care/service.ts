@@ -2,14 +2,12 @@ import { createHmac, timingSafeEqual } from 'node:crypto';
 import { and, desc, eq, gte, inArray, lte, sql } from 'drizzle-orm';
 import {
 	ADVICE_RANK,
-	effectiveLimits,
 	fingerCheckOffer,
 	selfCheckAdvice,
 	selfCheckSymptoms,
 	type AdviceLevel,
 	type EffectiveLimits,
 	type FingerCheckOffer,
-	type LimitsSelfReport,
 	type RedFlag,
 	type SelfCheckSites,
 	type Stage
@@ -23,7 +21,7 @@ import type {
 	SelfCheckInputData
 } from '../../self-care/schemas';
 import { recordAccess, recordAccesses, systemContext } from '../audit';
-import { currentClearances, limitsClient, limitsScreening } from '../clearance/limits';
+import { loadEffectiveLimits } from '../clearance/limits';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Database, type Executor } from '../db';
@@ -33,7 +31,6 @@ import {
 	homePracticeReminders,
 	homePracticeSessions,
 	organisations,
-	screenings,
 	selfChecks,
 	selfCheckSharing,
 	users,
@@ -88,61 +85,17 @@ async function isShared(tx: Executor, client: Pick<ClientRow, 'id' | 'organisati
 	return row?.shared ?? false;
 }
 
-/** Everything she reported herself: her self-checks' and practice sessions' symptoms. */
-async function selfReportsOf(tx: Executor, clientIds: readonly string[]) {
-	const byClient = new Map<string, LimitsSelfReport[]>();
-	if (clientIds.length === 0) return byClient;
-	const checks = await tx
-		.select({
-			id: selfChecks.id,
-			clientId: selfChecks.clientId,
-			takenAt: selfChecks.takenAt,
-			symptoms: selfChecks.symptoms
-		})
-		.from(selfChecks)
-		.where(inArray(selfChecks.clientId, [...clientIds]));
-	const sessions = await tx
-		.select({
-			id: homePracticeSessions.id,
-			clientId: homePracticeSessions.clientId,
-			takenAt: homePracticeSessions.doneAt,
-			symptoms: homePracticeSessions.symptoms
-		})
-		.from(homePracticeSessions)
-		.where(inArray(homePracticeSessions.clientId, [...clientIds]));
-	for (const row of [...checks, ...sessions]) {
-		const list = byClient.get(row.clientId) ?? [];
-		list.push({ id: row.id, takenAt: row.takenAt, symptoms: row.symptoms });
-		byClient.set(row.clientId, list);
-	}
-	return byClient;
-}
-
 /**
- * Her effective limits, with her self-reported symptoms counted when `withSelfReports` (her
- * own view always; the studio's only while she shares).
+ * Her effective limits, read by the one loader of `effectiveLimits`: with her self-reported
+ * symptoms in her own view always (`all`), studio-side only while she shares (`shared`).
  */
 async function limitsFor(
 	tx: Executor,
 	client: ClientRow,
-	withSelfReports: boolean
+	selfReports: 'all' | 'shared'
 ): Promise<EffectiveLimits> {
-	const history = await tx
-		.select()
-		.from(screenings)
-		.where(eq(screenings.clientId, client.id))
-		.orderBy(screenings.takenAt, screenings.id);
-	const clearance = (await currentClearances(tx, [client.id])).get(client.id) ?? null;
-	const reports = withSelfReports
-		? ((await selfReportsOf(tx, [client.id])).get(client.id) ?? [])
-		: [];
-	return effectiveLimits(
-		limitsClient(client),
-		history.map(limitsScreening),
-		clearance,
-		todayUtc(),
-		reports
-	);
+	const limits = await loadEffectiveLimits(tx, [client.id], todayUtc(), { selfReports });
+	return limits.get(client.id)!;
 }
 
 // ── Self-checks ─────────────────────────────────────────────────────────────────────────
@@ -433,7 +386,7 @@ export async function setHomePractice(
 		}
 		// Lock her record so two instructors' saves check against the same limits in turn.
 		await tx.execute(sql`select 1 from ${clients} where ${clients.id} = ${client.id} for update`);
-		const limits = await limitsFor(tx, client, await isShared(tx, client));
+		const limits = await limitsFor(tx, client, 'shared');
 		const cells = checkPlan(
 			{ items: input.items.map((item) => ({ exerciseId: item.exerciseId })) },
 			[{ clientId: client.id, stage: client.stage, limits }],
@@ -510,7 +463,7 @@ export async function getOwnHomePractice(caller: Caller): Promise<OwnHomePractic
 			.where(eq(homePractices.clientId, client.id));
 		const library = await libraryFor(tx, [client.organisationId]);
 		const items = practice?.items ?? [];
-		const limits = await limitsFor(tx, client, true);
+		const limits = await limitsFor(tx, client, 'all');
 		const cells = checkPlan(
 			{ items: items.map((item) => ({ exerciseId: item.exerciseId })) },
 			[{ clientId: client.id, stage: client.stage, limits }],
@@ -618,7 +571,7 @@ export async function clientSelfCare(caller: Caller, clientId: string): Promise<
 			.where(eq(homePractices.clientId, client.id));
 		const library = await libraryFor(tx, [client.organisationId]);
 		const items = practice?.items ?? [];
-		const limits = await limitsFor(tx, client, shared);
+		const limits = await limitsFor(tx, client, 'shared');
 		const cells = checkPlan(
 			{ items: items.map((item) => ({ exerciseId: item.exerciseId })) },
 			[{ clientId: client.id, stage: client.stage, limits }],
