@@ -150,7 +150,7 @@ export async function loadEffectiveLimits(
 }
 
 /** Self-reported symptoms (self-checks and practice sessions) per client, as asked. */
-async function selfReportsFor(
+export async function selfReportsFor(
 	tx: Executor,
 	records: ReadonlyArray<ClientRow>,
 	which: 'shared' | 'all' | 'none'

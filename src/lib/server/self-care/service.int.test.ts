@@ -20,6 +20,7 @@ import {
 	studioExercises
 } from '../db/schema';
 import { ProblemError } from '../http/problem';
+import { readClearance } from '../clearance/clearance';
 import { loadEffectiveLimits } from '../clearance/limits';
 import {
 	callerFor,
@@ -286,6 +287,8 @@ describe('home practice', () => {
 		);
 		const own = await getOwnHomePractice(fay.caller);
 		expect(own.items.map((i) => i.paused)).toEqual([false, true]);
+		expect((await readClearance(fay.caller, fay.id)).effective.impact.by).toBe('self_report');
+		expect((await readClearance(alice, fay.id)).effective.impact.level).toBe('no_limit');
 		// Not shared: the studio's limits do not know it, so jogging may still be given.
 		const studioView = await clientSelfCare(alice, fay.id);
 		expect(studioView.practice.items.map((i) => i.paused)).toEqual([false, false]);
@@ -295,6 +298,10 @@ describe('home practice', () => {
 		const shared = await clientSelfCare(alice, fay.id);
 		expect(shared.practice.items.map((i) => i.paused)).toEqual([false, true]);
 		expect(shared.practice.feltWrong[0]?.symptoms).toEqual(['leakage']);
+		expect((await readClearance(alice, fay.id)).effective.impact).toMatchObject({
+			level: 'hold',
+			by: 'self_report'
+		});
 		// The plans and the client list read the same limits, with her shared reports.
 		const today = new Date().toISOString().slice(0, 10);
 		const studioSide = await loadEffectiveLimits(db(), [fay.id], today, { selfReports: 'shared' });
