@@ -36,7 +36,8 @@ async function seedClient(email: string, name: string): Promise<string> {
 			client!.id,
 			JSON.stringify([
 				{ exerciseId: 'heel-slides', reps: '8 each side', note: null },
-				{ exerciseId: 'bent-knee-fall-outs', reps: '8 each side', note: null }
+				{ exerciseId: 'bent-knee-fall-outs', reps: '8 each side', note: null },
+				{ exerciseId: 'curl-up', reps: '5', note: 'Small lift only.' }
 			])
 		]
 	);
@@ -106,10 +107,39 @@ test('the whole self-check on a 390 px phone, sharing, and marking a practice do
 	)) as Array<{ n: string }>;
 	expect(rows[0]!.n).toBe('1');
 
+	// A physiotherapist's clearance puts loaded flexion on hold: the curl-up shows paused at once.
+	await expect(page.getByText('Paused — tell your instructor')).toHaveCount(0);
+	const levels = {
+		loaded_flexion: 'hold',
+		long_lever: 'cleared',
+		front_loaded: 'cleared',
+		loaded_rotation: 'cleared',
+		loaded_extension: 'cleared',
+		inversion: 'cleared',
+		high_pressure: 'cleared',
+		impact: 'cleared',
+		deep_stability: 'cleared'
+	};
+	await sql(
+		`insert into clearances (client_id, clinic_id, levels, modifications, review_on, set_by,
+			stage_at_set, known_until)
+		 select $1, c.id, $2::jsonb, '{}'::jsonb, (now() + interval '6 weeks')::date, p.id,
+			'postpartum', now()
+		 from organisations c, users p
+		 where c.name = 'Fernbank Pelvic Health' and p.email = 'physio@clinic.example'`,
+		[clientId, JSON.stringify(levels)]
+	);
+	await page.goto('/practice');
+	const curlUp = page.getByRole('listitem').filter({ hasText: 'Curl-up' });
+	await expect(curlUp.getByText('Paused — tell your instructor')).toBeVisible();
+	await expect(page.getByText('Paused — tell your instructor')).toHaveCount(1);
+	await expectAccessible(page);
+
 	const instructor = await personPage(browser, 'instructor@studio.example', 1280);
 	await instructor.goto(`/clients/${clientId}`);
 	await expect(instructor.getByRole('heading', { name: 'Between classes' })).toBeVisible();
 	await expect(instructor.getByTestId('self-checks')).toContainText('She was asked to show you');
 	await expect(instructor.getByTestId('adherence')).toContainText('1 practice marked done');
+	await expect(instructor.getByText(/Needs a swap: Curl-up/)).toBeVisible();
 	await instructor.screenshot({ path: `/tmp/selfcheck-instructor-1280.png`, fullPage: true });
 });
