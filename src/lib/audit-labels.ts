@@ -53,6 +53,14 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
 	'audit.exported': 'Exported the access log',
 	'mail.resent': 'Sent a failed mail again',
 	'audit.verified': 'Verified the access log',
+	'self_check.recorded': 'Recorded a self-check',
+	'self_check.read': 'Read self-checks',
+	'self_check.sharing_changed': 'Changed self-check sharing',
+	'home_practice.set': 'Set a home practice',
+	'home_practice.read': 'Read a home practice',
+	'home_practice.session_recorded': 'Marked a home practice done',
+	'home_practice.reminder_changed': 'Changed practice reminders',
+	'home_practice.reminded': 'Sent a practice reminder',
 	'access.denied': 'Was refused access'
 };
 

@@ -27,6 +27,7 @@ import { DOCUMENT_ROWS } from './matrix-rows/documents';
 import { PLAN_ROWS } from './matrix-rows/plans';
 import { PRIVACY_ROWS } from './matrix-rows/privacy';
 import { REFERRAL_ROWS } from './matrix-rows/referrals';
+import { SELF_CARE_ROWS } from './matrix-rows/self-care';
 
 // The table, by domain: the core (sign-in, dashboards, members) and each feature's rows.
 const MATRIX: Row[] = [
@@ -37,7 +38,8 @@ const MATRIX: Row[] = [
 	...CLEARANCE_ROWS,
 	...PLAN_ROWS,
 	...AUDIT_ROWS,
-	...PRIVACY_ROWS
+	...PRIVACY_ROWS,
+	...SELF_CARE_ROWS
 ];
 
 const ROUTES = 'src/routes';

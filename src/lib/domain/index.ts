@@ -12,3 +12,4 @@ export * from './weeks';
 export * from './movement';
 export * from './limits';
 export * from './assessment';
+export * from './self-check';

@@ -9,6 +9,7 @@ import {
 	type LimitsClearance,
 	type LimitsClient,
 	type LimitsScreening,
+	type LimitsSelfReport,
 	type MovementCategory,
 	type NewFinding
 } from './movement';
@@ -19,6 +20,7 @@ import {
 	RED_FLAG_SOURCES,
 	type RedFlag
 } from './red-flags';
+import { holdingSymptoms } from './self-check';
 import { formatFingerWidths, siteLabelCapitalised, SITES } from './sites';
 import { SOURCES } from './sources';
 import { weeksPostpartum } from './weeks';
@@ -288,6 +290,76 @@ function recordHolds(client: LimitsClient, today: string): { holds: Hold[]; prom
 	return { holds, prompts };
 }
 
+/**
+ * Holds from what she reported herself since the studio last screened her and since the
+ * clinician's clearance: a symptom at `see_clinician` or above holds what the same flag in a
+ * screening would (labelled self-reported). Signs that send her to a doctor stand from any such
+ * report; the others follow her latest report, so a later report without them lifts them.
+ */
+function selfReportHolds(
+	reports: readonly LimitsSelfReport[],
+	screenings: readonly LimitsScreening[],
+	clearance: LimitsClearance | null
+): { holds: Hold[]; seeDoctorFirst: boolean } {
+	const after = Math.max(
+		screenings.at(-1)?.takenAt.getTime() ?? -Infinity,
+		clearance?.setAt.getTime() ?? -Infinity
+	);
+	const recent = [...reports]
+		.filter((report) => report.takenAt.getTime() > after)
+		.sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
+	const holds: Hold[] = [];
+	const medical: string[] = [];
+	const medicalSources = new Set<string>();
+	for (const report of recent) {
+		for (const flag of holdingSymptoms(report.symptoms)) {
+			if (RED_FLAG_REFER_TO[flag] !== 'medical') continue;
+			medical.push(`${RED_FLAG_LABELS[flag]} (self-reported ${dayOf(report.takenAt)})`);
+			medicalSources.add(RED_FLAG_SOURCES[flag]);
+		}
+	}
+	if (medical.length > 0) {
+		holds.push({
+			categories: ALL,
+			reason: `Self-reported — see a doctor or midwife first: ${[...new Set(medical)].join('; ')}. Every movement waits until a clinician has seen her.`,
+			source: [...medicalSources].join('; '),
+			by: 'self_report',
+			seeDoctorFirst: true
+		});
+	}
+	const latest = recent.at(-1);
+	const physio = latest
+		? holdingSymptoms(latest.symptoms).filter((flag) => RED_FLAG_REFER_TO[flag] === 'physio')
+		: [];
+	if (latest && physio.length > 0) {
+		const on = dayOf(latest.takenAt);
+		const felt = physio.map((flag) => RED_FLAG_LABELS[flag].toLowerCase()).join('; ');
+		holds.push({
+			categories: FLEXION_HOLDS,
+			reason: `Self-reported on ${on}: ${felt}. Loaded flexion and long-lever abdominal work wait until a physiotherapist has seen her.`,
+			source: `${physio.map((flag) => RED_FLAG_SOURCES[flag]).join('; ')}; ${SOURCES.flexionPractice}`,
+			by: 'self_report'
+		});
+		if (physio.some((flag) => PELVIC_FLOOR_FLAGS.includes(flag))) {
+			holds.push({
+				categories: PELVIC_FLOOR_HOLDS,
+				reason: `Self-reported on ${on}: ${felt}. High-pressure effort and impact wait until a physiotherapist has assessed her.`,
+				source: SOURCES.heavinessPractice,
+				by: 'self_report'
+			});
+		}
+		if (physio.includes('midline_bulge')) {
+			holds.push({
+				categories: BULGE_HOLDS,
+				reason: `Self-reported on ${on}: a bulge along the midline. Heavy lifting and breath-holding effort wait until it has been reviewed.`,
+				source: SOURCES.carlstedt2020,
+				by: 'self_report'
+			});
+		}
+	}
+	return { holds, seeDoctorFirst: medical.length > 0 };
+}
+
 function capitalise(text: string): string {
 	return text.charAt(0).toUpperCase() + text.slice(1);
 }
@@ -509,12 +581,15 @@ function joinSources(a: string, b: string): string {
  * from her record and screenings. Plan checks and home practice read only this.
  *
  * `today` is the calendar day (YYYY-MM-DD) weeks since the birth and review dates are read on.
+ * `selfReports` are what she reported herself: pass them only where she may see them (her own
+ * view) or shares them (the studio's).
  */
 export function effectiveLimits(
 	client: LimitsClient,
 	screenings: readonly LimitsScreening[],
 	clearance: LimitsClearance | null,
-	today: string
+	today: string,
+	selfReports: readonly LimitsSelfReport[] = []
 ): EffectiveLimits {
 	assertDay(today, 'today');
 	const ordered = chronological(screenings);
@@ -544,9 +619,12 @@ export function effectiveLimits(
 
 	// A clinician's clearance lifts a sign only when it was set after it; a lapsed one still
 	// shows a clinician saw her after the sign.
+	const selfReported = selfReportHolds(selfReports, ordered, clearance);
+	categories = applyHolds(categories, selfReported.holds);
+
 	const signs = standingMedicalSigns(ordered, clearance);
-	const seeDoctorFirst = signs.length > 0;
-	if (seeDoctorFirst) categories = applyHolds(categories, [medicalHold(signs)]);
+	const seeDoctorFirst = signs.length > 0 || selfReported.seeDoctorFirst;
+	if (signs.length > 0) categories = applyHolds(categories, [medicalHold(signs)]);
 
 	return {
 		categories,

@@ -102,6 +102,16 @@ export interface LimitsScreening {
 	medicalSignResolved?: boolean;
 }
 
+/**
+ * Symptoms she reported herself (a self-check, or a home practice that felt wrong), as the
+ * limits need them. Studio-side only when she shares her self-checks with the studio.
+ */
+export interface LimitsSelfReport {
+	id: string;
+	takenAt: Date;
+	symptoms: readonly RedFlag[];
+}
+
 /** The clearance in force, as the limits need it. */
 export interface LimitsClearance {
 	id: string;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
 	CAESAREAN_SCAR_SIGNS,
+	EMERGENCY_SIGNS,
 	isCaesareanScarSign,
 	isPregnancyWarningSign,
 	isRedFlag,
@@ -18,7 +19,10 @@ describe('red flag lists', () => {
 	it('holds every symptom flag and warning sign once', () => {
 		expect(new Set(RED_FLAGS).size).toBe(RED_FLAGS.length);
 		expect(RED_FLAGS).toHaveLength(
-			SYMPTOM_RED_FLAGS.length + PREGNANCY_WARNING_SIGNS.length + CAESAREAN_SCAR_SIGNS.length
+			SYMPTOM_RED_FLAGS.length +
+				PREGNANCY_WARNING_SIGNS.length +
+				CAESAREAN_SCAR_SIGNS.length +
+				EMERGENCY_SIGNS.length
 		);
 	});
 
@@ -61,7 +65,12 @@ describe('red flag lists', () => {
 		// Goom T et al. 2019 (secondary); from memory (ACOG CO 804, 2020); caesarean scar signs:
 		// common practice, from memory
 		const medical = RED_FLAGS.filter((flag) => RED_FLAG_REFER_TO[flag] === 'medical');
-		expect(medical).toEqual(['late_bleeding', ...PREGNANCY_WARNING_SIGNS, ...CAESAREAN_SCAR_SIGNS]);
+		expect(medical).toEqual([
+			'late_bleeding',
+			...PREGNANCY_WARNING_SIGNS,
+			...CAESAREAN_SCAR_SIGNS,
+			...EMERGENCY_SIGNS
+		]);
 	});
 
 	it('offers the caesarean scar signs only after the birth, sourced as common practice from memory', () => {

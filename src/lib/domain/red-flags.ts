@@ -37,10 +37,23 @@ export const PREGNANCY_WARNING_SIGNS = [
  */
 export const CAESAREAN_SCAR_SIGNS = ['scar_pain', 'scar_bulge', 'wound_infection'] as const;
 
+/**
+ * Signs that need emergency care now, added when the list became the one symptom list of the
+ * screening form and the client's self-check: heavy bleeding (NICE CG37, table 5-1), reduced
+ * fetal movements and a hard painful bulge that will not go back in (common practice, from
+ * memory). Codes are our own.
+ */
+export const EMERGENCY_SIGNS = [
+	'heavy_bleeding',
+	'reduced_fetal_movements',
+	'stuck_bulge'
+] as const;
+
 export const RED_FLAGS = [
 	...SYMPTOM_RED_FLAGS,
 	...PREGNANCY_WARNING_SIGNS,
-	...CAESAREAN_SCAR_SIGNS
+	...CAESAREAN_SCAR_SIGNS,
+	...EMERGENCY_SIGNS
 ] as const;
 export type RedFlag = (typeof RED_FLAGS)[number];
 
@@ -63,7 +76,10 @@ export const RED_FLAG_LABELS: Record<RedFlag, string> = {
 	muscle_weakness: 'Muscle weakness affecting balance',
 	scar_pain: 'Pain at the caesarean scar',
 	scar_bulge: 'A bulge or lump at the caesarean scar',
-	wound_infection: 'Signs of wound infection: redness, heat, discharge or fever'
+	wound_infection: 'Signs of wound infection: redness, heat, discharge or fever',
+	heavy_bleeding: 'Heavy bleeding or passing clots',
+	reduced_fetal_movements: 'The baby moving less than usual',
+	stuck_bulge: 'A hard, painful bulge that will not go back in'
 };
 
 const BOTH: readonly Stage[] = ['pregnant', 'postpartum'];
@@ -92,7 +108,10 @@ export const RED_FLAG_STAGES: Record<RedFlag, readonly Stage[]> = {
 	muscle_weakness: ['pregnant'],
 	scar_pain: ['postpartum'],
 	scar_bulge: ['postpartum'],
-	wound_infection: ['postpartum']
+	wound_infection: ['postpartum'],
+	heavy_bleeding: BOTH,
+	reduced_fetal_movements: ['pregnant'],
+	stuck_bulge: BOTH
 };
 
 export function redFlagsForStage(stage: Stage): RedFlag[] {
@@ -125,7 +144,10 @@ export const RED_FLAG_REFER_TO: Record<RedFlag, ReferTo> = {
 	muscle_weakness: 'medical',
 	scar_pain: 'medical',
 	scar_bulge: 'medical',
-	wound_infection: 'medical'
+	wound_infection: 'medical',
+	heavy_bleeding: 'medical',
+	reduced_fetal_movements: 'medical',
+	stuck_bulge: 'medical'
 };
 
 /** Flags that make a midline bulge count as painful. */
@@ -150,7 +172,10 @@ export const RED_FLAG_SOURCES: Record<RedFlag, string> = {
 	muscle_weakness: SOURCES.acog804,
 	scar_pain: SOURCES.caesareanScarSigns,
 	scar_bulge: SOURCES.caesareanScarSigns,
-	wound_infection: SOURCES.caesareanScarSigns
+	wound_infection: SOURCES.caesareanScarSigns,
+	heavy_bleeding: SOURCES.niceCg37LifeThreatening,
+	reduced_fetal_movements: SOURCES.fetalMovementsPractice,
+	stuck_bulge: SOURCES.stuckBulgePractice
 };
 
 export function isRedFlag(value: string): value is RedFlag {

@@ -62,6 +62,14 @@ export const SOURCES = {
 		'Common practice, from memory (not verified): after a caesarean, scar pain, a bulge at the scar or signs of wound infection are red flags for a doctor',
 	niceCg37:
 		'NICE CG37 Postnatal care, table 5-1 — signs after the birth that need emergency care (heavy bleeding, chest pain or breathlessness, signs of infection, calf pain or swelling, severe headache)',
+	niceCg37LifeThreatening:
+		'NICE CG37 Postnatal care — signs of a potentially life-threatening condition that need emergency care (sudden or heavy bleeding, chest pain, sudden breathlessness)',
+	fetalMovementsPractice:
+		'Common practice, from memory (not verified): the baby moving less than usual needs the maternity unit the same hour, not the next day',
+	stuckBulgePractice:
+		'Common practice, from memory (not verified): a hard, painful bulge that will not go back in may be a trapped hernia and needs emergency care',
+	selfCheckUrgencyPractice:
+		'Common practice, from memory (not verified): which signs call for a same-day call to a midwife or doctor rather than emergency care',
 	noProvisionalLimit:
 		'Seamwell’s provisional rules hold nothing here (each rule names its own source); no clinician’s clearance yet',
 	keshwani2016:

@@ -3,6 +3,7 @@ import { startReviewReminders } from './clearance/reviews';
 import { db } from './db';
 import { startDocumentSweeper } from './documents/sweeper';
 import { startOutboxWorker } from './mail/worker';
+import { sendPracticeReminders } from './self-care/service';
 import { s3AnchorStore } from './storage/anchors';
 
 let running: (() => Promise<void>) | undefined;
@@ -25,7 +26,8 @@ export function startBackgroundWorkers(): () => Promise<void> {
 	// Deleting an orphan twice is harmless, so several processes may sweep side by side.
 	const sweeper = startDocumentSweeper(database);
 	// Each reminder is claimed by an UPDATE … WHERE reminder_sent_at IS NULL: sent once.
-	const reminders = startReviewReminders(database);
+	// Practice reminders are claimed by moving their due day on in the same UPDATE: sent once.
+	const reminders = startReviewReminders(database, { also: sendPracticeReminders });
 	let stopping: Promise<void> | undefined;
 	const stop = () => {
 		stopping ??= Promise.all([outbox.stop(), sealer.stop(), sweeper.stop(), reminders.stop()]).then(

@@ -51,6 +51,14 @@ export const AUDIT_ACTIONS = [
 	'audit.exported',
 	'mail.resent',
 	'audit.verified',
+	'self_check.recorded',
+	'self_check.read',
+	'self_check.sharing_changed',
+	'home_practice.set',
+	'home_practice.read',
+	'home_practice.session_recorded',
+	'home_practice.reminder_changed',
+	'home_practice.reminded',
 	'access.denied'
 ] as const;
 

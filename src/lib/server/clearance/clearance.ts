@@ -21,7 +21,7 @@ import {
 import { fieldProblem, notFound, ProblemError } from '../http/problem';
 import { queueNotification } from '../mail/outbox';
 import { instructorRecipient } from '../referrals/notify';
-import { limitsClearance, limitsClient, limitsScreening } from './limits';
+import { limitsClearance, limitsClient, limitsScreening, selfReportsFor } from './limits';
 import { clearanceViewer, clearingReferrals, type ClearanceViewer } from './policy';
 
 // Setting and reading a client's clearance. A new clearance supersedes the one before (the
@@ -251,11 +251,18 @@ export async function readClearance(caller: Caller, clientId: string): Promise<C
 		const [record] = await tx.select().from(clients).where(eq(clients.id, clientId));
 		const history = await screeningsFor(tx, viewer, theirs, clientId, rows[0]?.clearance);
 		const newest = rows[0];
+		// Her own reports: to her always, to her studio while she shares, never to the clinic.
+		const reports = await selfReportsFor(
+			tx,
+			[record!],
+			viewer.kind === 'client' ? 'all' : viewer.kind === 'studio' ? 'shared' : 'none'
+		);
 		const limits = effectiveLimits(
 			limitsClient(record!),
 			history.map(limitsScreening),
 			newest ? limitsClearance(newest.clearance, newest) : null,
-			today
+			today,
+			reports.get(clientId) ?? []
 		);
 		await recordAccess(tx, caller.access, {
 			action: 'clearance.read',

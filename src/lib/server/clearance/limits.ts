@@ -7,7 +7,17 @@ import type {
 	LimitsScreening
 } from '../../domain/movement';
 import type { Executor } from '../db';
-import { clearances, clients, organisations, screenings, users } from '../db/schema';
+import {
+	clearances,
+	clients,
+	homePracticeSessions,
+	organisations,
+	screenings,
+	selfChecks,
+	selfCheckSharing,
+	users
+} from '../db/schema';
+import type { LimitsSelfReport } from '../../domain/movement';
 
 // Builds the inputs of `effectiveLimits` (src/lib/domain/limits.ts) from the database, for
 // many clients at once: one query each for the records, their screenings and their current
@@ -97,7 +107,14 @@ export async function currentClearances(
 export async function loadEffectiveLimits(
 	tx: Executor,
 	clientIds: string[],
-	today: string
+	today: string,
+	options: {
+		/**
+		 * Her self-reported symptoms: `shared` for the studio (only while she shares her
+		 * self-checks with her studio), `all` for her own view, `none` otherwise.
+		 */
+		selfReports?: 'shared' | 'all' | 'none';
+	} = {}
 ): Promise<Map<string, EffectiveLimits>> {
 	const ids = [...new Set(clientIds)];
 	const result = new Map<string, EffectiveLimits>();
@@ -116,6 +133,7 @@ export async function loadEffectiveLimits(
 		list.push(limitsScreening(row));
 		byClient.set(row.clientId, list);
 	}
+	const reports = await selfReportsFor(tx, records, options.selfReports ?? 'none');
 	for (const record of records) {
 		result.set(
 			record.id,
@@ -123,9 +141,59 @@ export async function loadEffectiveLimits(
 				limitsClient(record),
 				byClient.get(record.id) ?? [],
 				current.get(record.id) ?? null,
-				today
+				today,
+				reports.get(record.id) ?? []
 			)
 		);
 	}
 	return result;
+}
+
+/** Self-reported symptoms (self-checks and practice sessions) per client, as asked. */
+export async function selfReportsFor(
+	tx: Executor,
+	records: ReadonlyArray<ClientRow>,
+	which: 'shared' | 'all' | 'none'
+): Promise<Map<string, LimitsSelfReport[]>> {
+	const found = new Map<string, LimitsSelfReport[]>();
+	if (which === 'none' || records.length === 0) return found;
+	let ids = records.map((r) => r.id);
+	if (which === 'shared') {
+		const sharing = await tx
+			.select({
+				clientId: selfCheckSharing.clientId,
+				organisationId: selfCheckSharing.organisationId
+			})
+			.from(selfCheckSharing)
+			.where(sql`${inArray(selfCheckSharing.clientId, ids)} and ${selfCheckSharing.shared}`);
+		const studioOf = new Map(records.map((r) => [r.id, r.organisationId]));
+		ids = sharing
+			.filter((s) => studioOf.get(s.clientId) === s.organisationId)
+			.map((s) => s.clientId);
+		if (ids.length === 0) return found;
+	}
+	const checks = await tx
+		.select({
+			id: selfChecks.id,
+			clientId: selfChecks.clientId,
+			takenAt: selfChecks.takenAt,
+			symptoms: selfChecks.symptoms
+		})
+		.from(selfChecks)
+		.where(inArray(selfChecks.clientId, ids));
+	const sessions = await tx
+		.select({
+			id: homePracticeSessions.id,
+			clientId: homePracticeSessions.clientId,
+			takenAt: homePracticeSessions.doneAt,
+			symptoms: homePracticeSessions.symptoms
+		})
+		.from(homePracticeSessions)
+		.where(inArray(homePracticeSessions.clientId, ids));
+	for (const row of [...checks, ...sessions]) {
+		const list = found.get(row.clientId) ?? [];
+		list.push({ id: row.id, takenAt: row.takenAt, symptoms: row.symptoms });
+		found.set(row.clientId, list);
+	}
+	return found;
 }

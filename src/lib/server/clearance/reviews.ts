@@ -226,7 +226,12 @@ export interface ReminderLoop {
 /** Runs sendReviewReminders every `intervalMs` (default 10 min); logs, never throws. */
 export function startReviewReminders(
 	database: Database,
-	options: { intervalMs?: number; log?: (line: string) => void } = {}
+	options: {
+		intervalMs?: number;
+		log?: (line: string) => void;
+		/** Other reminders sent on the same beat (the home-practice reminders). */
+		also?: (database: Database) => Promise<unknown>;
+	} = {}
 ): ReminderLoop {
 	const intervalMs = options.intervalMs ?? 10 * 60 * 1000;
 	const log = options.log ?? ((line: string) => console.error(line));
@@ -238,6 +243,7 @@ export function startReviewReminders(
 		running = (async () => {
 			try {
 				await sendReviewReminders(database);
+				if (options.also) await options.also(database);
 				if (failing) log('[clearance] review reminders: database reachable again');
 				failing = false;
 			} catch (error) {

@@ -299,7 +299,8 @@ export async function listClients(
 		const limits = await loadEffectiveLimits(
 			tx,
 			page.items.map((row) => row.id),
-			new Date().toISOString().slice(0, 10)
+			new Date().toISOString().slice(0, 10),
+			{ selfReports: 'shared' }
 		);
 		return {
 			items: page.items.map((row) => {

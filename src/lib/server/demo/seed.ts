@@ -1,3 +1,4 @@
+import { seedDemoSelfCare } from './self-care';
 import { sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { memberships, organisations, users } from '../db/schema';
@@ -43,6 +44,7 @@ export async function seedDemo(database: Database): Promise<void> {
 		await seedDemoReferrals(tx, orgIds, userIdsByEmail);
 		await seedDemoClearances(tx, orgIds, userIdsByEmail);
 		await seedDemoPlans(tx, orgIds, userIdsByEmail);
+		await seedDemoSelfCare(tx, orgIds, userIdsByEmail);
 	});
 }
 

@@ -55,6 +55,10 @@ export const NOTIFICATION_WORDS = {
 	'consent.given': {
 		subject: 'A client gave consent to share — you can now send the referral',
 		line: 'A client has given her consent to share with a clinic. Sign in to send her referral.'
+	},
+	'practice.reminder': {
+		subject: 'A reminder from Seamwell: your home practice',
+		line: 'This is the reminder you asked for: a moment for your home practice and, if you like, a check of how you feel.'
 	}
 } as const satisfies Record<string, { subject: string; line: string }>;
 

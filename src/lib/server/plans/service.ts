@@ -96,7 +96,10 @@ function customToExercise(row: typeof studioExercises.$inferSelect): Exercise {
 }
 
 /** The shipped library and the studio's own exercises, shipped first. */
-async function libraryFor(executor: Executor, studioIds: readonly string[]): Promise<Exercise[]> {
+export async function libraryFor(
+	executor: Executor,
+	studioIds: readonly string[]
+): Promise<Exercise[]> {
 	if (studioIds.length === 0) return [...SHIPPED_EXERCISES];
 	const rows = await executor
 		.select()
@@ -308,7 +311,8 @@ async function validateContent(
 		const limits = await loadEffectiveLimits(
 			tx,
 			[...new Set(fresh.map((f) => f.clientId))],
-			todayUtc()
+			todayUtc(),
+			{ selfReports: 'shared' }
 		);
 		for (const f of fresh) {
 			const client = byId.get(f.clientId)!;
@@ -598,7 +602,7 @@ async function runCheck(
 	const roster = await rosterOf(tx, row.id);
 	const ids = roster.map((c) => c.id);
 	const [limits, library] = await Promise.all([
-		loadEffectiveLimits(tx, ids, todayUtc()),
+		loadEffectiveLimits(tx, ids, todayUtc(), { selfReports: 'shared' }),
 		libraryFor(tx, [row.organisationId])
 	]);
 	const withLimits: ClientWithLimits[] = roster
@@ -972,7 +976,7 @@ export async function plansForMe(caller: Caller): Promise<ForYouEntry[]> {
 		if (rows.length === 0) return [];
 		const client = rows[0]!.client;
 		const [limits, library] = await Promise.all([
-			loadEffectiveLimits(tx, [clientId], todayUtc()),
+			loadEffectiveLimits(tx, [clientId], todayUtc(), { selfReports: 'all' }),
 			libraryFor(tx, [client.organisationId])
 		]);
 		const mine = limits.get(clientId);

@@ -7,3 +7,4 @@ export * from './sharing';
 export * from './documents';
 export * from './clearance';
 export * from './plans';
+export * from './self-care';

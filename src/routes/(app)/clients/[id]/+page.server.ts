@@ -15,6 +15,10 @@ import { listClientReferrals } from '$lib/server/referrals/for-client';
 import { readClearance } from '$lib/server/clearance/clearance';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
+import { clientSelfCare, setHomePractice } from '$lib/server/self-care/service';
+import { homePracticeSchema } from '$lib/self-care/schemas';
+import { ProblemError } from '$lib/server/http/problem';
+import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
@@ -26,6 +30,10 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		forPage(listClientReferrals(caller, id)),
 		forPage(readClearance(caller, id))
 	]);
+	// Her home practice and, while she shares them, her self-checks: instructors of her studio.
+	const selfCare = mayWriteClient(caller.actor, client)
+		? await forPage(clientSelfCare(caller, id))
+		: null;
 	const charts = SITES.map((site) => ({
 		site,
 		title: siteLabelCapitalised(site),
@@ -37,6 +45,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		referrals,
 		clearance,
 		charts,
+		selfCare,
 		combined: combinedChartGeometry(history.series),
 		mayWrite: mayWriteClient(caller.actor, client),
 		// Her own factor for the table's mm estimates (display only, never a criterion).
@@ -56,6 +65,37 @@ export const actions: Actions = {
 			return failFromProblem(caught, parsed.values, { rename: clientField, words: CLIENT_WORDS });
 		}
 		return { consentRecorded: true };
+	},
+	homePractice: async ({ locals, url, params, request }) => {
+		const caller = requirePageCaller(locals, url);
+		const id = pageId(params.id);
+		await forPage(assertMayWriteClient(caller, id));
+		const form = await request.formData();
+		const ids = form.getAll('exerciseId').map(String);
+		// The page's form always sends its rows; a form without them is not that form.
+		if (ids.length === 0)
+			return fail(400, { homePracticeError: 'Choose the exercises.', items: [] });
+		const reps = form.getAll('reps').map(String);
+		const notes = form.getAll('note').map(String);
+		const items = ids
+			.map((exerciseId, i) => ({ exerciseId, reps: reps[i] ?? '', note: notes[i] ?? '' }))
+			.filter((item) => item.exerciseId !== '');
+		const parsed = homePracticeSchema.safeParse({ items });
+		if (!parsed.success) {
+			return fail(400, { homePracticeError: 'Check the exercises, reps and notes.', items });
+		}
+		try {
+			await setHomePractice(caller, id, parsed.data);
+		} catch (caught) {
+			if (caught instanceof ProblemError && caught.slug !== 'not-found') {
+				return fail(caught.init.status ?? 409, { homePracticeError: caught.init.detail, items });
+			}
+			if (caught instanceof ProblemError) {
+				return fail(400, { homePracticeError: caught.init.detail, items });
+			}
+			throw caught;
+		}
+		return { homePracticeSaved: true };
 	},
 	invite: async ({ locals, url, params }) => {
 		const caller = requirePageCaller(locals, url);
