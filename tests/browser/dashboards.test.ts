@@ -42,8 +42,8 @@ const accounts = [
 		heading: 'Physiotherapist dashboard',
 		also: []
 	},
-	{ email: 'client@client.example', path: '/client', heading: 'My record', also: [] },
-	{ email: 'client2@client.example', path: '/client', heading: 'My record', also: [] }
+	{ email: 'client@client.example', path: '/client', heading: 'Home', also: [] },
+	{ email: 'client2@client.example', path: '/client', heading: 'Home', also: [] }
 ];
 
 for (const account of accounts) {

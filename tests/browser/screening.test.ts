@@ -107,7 +107,7 @@ test('the screening form fits a phone, and a demo client shows a chart with hist
 test('the client sees her own screenings in plain words', async ({ page }) => {
 	await signIn(page, 'client@client.example');
 	await page.goto('/my-record');
-	await expect(page).toHaveTitle('My screenings — Seamwell');
+	await expect(page).toHaveTitle('My record — Seamwell');
 	await expect(page.getByRole('heading', { name: /Your latest screening/ })).toBeVisible();
 	await expect(page.getByText('narrower by', { exact: false }).first()).toBeVisible();
 	await expectAccessible(page);
