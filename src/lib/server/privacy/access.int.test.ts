@@ -118,7 +118,8 @@ describe('who accessed my record', () => {
 				client: data.client,
 				screenings: data.screenings.items,
 				consents: data.consents.grants,
-				referrals: data.referrals
+				referrals: data.referrals,
+				selfChecks: data.selfChecks.checks
 			},
 			'https://seamwell.example'
 		);

@@ -8,6 +8,7 @@ import { db } from '../db';
 import { notFound } from '../http/problem';
 import { plansForMe } from '../plans/service';
 import { listClientReferrals } from '../referrals/for-client';
+import { getOwnHomePractice, listOwnSelfChecks } from '../self-care/service';
 import { listOwnAccess, type OwnAccessItem } from './access';
 
 // "Download my data" as one JSON document (GDPR Art. 15 and 20): everything Seamwell shows
@@ -37,11 +38,13 @@ export async function exportOwnData(caller: Caller, now = new Date()) {
 		return refuse(caller, 'client.exported', notFound('You have no client record in Seamwell.'));
 	}
 	const record = await getOwnRecord(caller);
-	const [consents, referrals, clearance, inClass] = await Promise.all([
+	const [consents, referrals, clearance, inClass, selfChecks, homePractice] = await Promise.all([
 		getConsentOverview(caller),
 		listClientReferrals(caller, record.client.id),
 		readClearance(caller, record.client.id),
-		plansForMe(caller)
+		plansForMe(caller),
+		listOwnSelfChecks(caller),
+		getOwnHomePractice(caller)
 	]);
 	await recordAccess(db(), caller.access, {
 		action: 'client.exported',
@@ -60,6 +63,8 @@ export async function exportOwnData(caller: Caller, now = new Date()) {
 		referrals,
 		clearance,
 		inClass,
+		selfChecks: { sharedWithStudio: selfChecks.shared, checks: selfChecks.checks },
+		homePractice,
 		accessLog
 	};
 }

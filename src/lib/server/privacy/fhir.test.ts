@@ -67,6 +67,20 @@ function bundle(): FhirBundle {
 			referrals: REFERRAL_STATES.map((state, i) =>
 				referral(state, `a0000000-0000-4000-8000-00000000000${i}`)
 			),
+			selfChecks: [
+				{
+					id: '5e1f0a2b-3c4d-4e5f-8a6b-7c8d9e0f1a2c',
+					takenAt: '2026-11-28T08:00:00.000Z',
+					symptoms: [],
+					sites: {
+						above_navel: { widthFingers: 1, deep: false, doming: false },
+						at_navel: { widthFingers: 2, deep: true, doming: false },
+						below_navel: { widthFingers: 1, deep: false, doming: false }
+					},
+					advice: { level: 'show_instructor', text: 'invented' },
+					selfReported: true
+				}
+			],
 			consents: [
 				grant('active', 'c0000000-0000-4000-8000-000000000001'),
 				grant('withdrawn', 'c0000000-0000-4000-8000-000000000002')
@@ -93,7 +107,12 @@ describe('the client’s FHIR R4 Bundle', () => {
 
 	it('one Observation per site per screening, finger widths with a UCUM annotation, mm as UCUM mm', () => {
 		const observations = bundle().entry.filter((e) => e.resource.resourceType === 'Observation');
-		expect(observations).toHaveLength(3);
+		// Three from the instructor's screening, three from her own check, tagged self-reported.
+		expect(observations).toHaveLength(6);
+		const own = observations.filter((o) =>
+			JSON.stringify(o.resource.meta ?? {}).includes('self-reported')
+		);
+		expect(own).toHaveLength(3);
 		const atNavel = observations[1]!.resource as unknown as {
 			valueQuantity: unknown;
 			component: Array<{ valueQuantity?: unknown }>;

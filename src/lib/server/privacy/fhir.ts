@@ -9,6 +9,7 @@ import type { ConsentStatus } from '$lib/domain/consent';
 import type { ClientDetail, ScreeningView } from '$lib/clients/types';
 import type { ConsentGrantView } from '../consents/service';
 import type { ClientReferral } from '../referrals/for-client';
+import type { SelfCheckView } from '../self-care/service';
 
 export type FhirResource = { resourceType: string; id: string } & Record<string, unknown>;
 export interface FhirBundle {
@@ -61,6 +62,7 @@ export interface FhirExportInput {
 	screenings: ScreeningView[];
 	consents: ConsentGrantView[];
 	referrals: ClientReferral[];
+	selfChecks?: SelfCheckView[];
 }
 
 export function patientOf(client: ClientDetail): FhirResource {
@@ -131,6 +133,62 @@ export function siteObservations(
 				code: '{finger-width}'
 			},
 			component
+		};
+	});
+}
+
+/**
+ * Her own finger-width checks: one Observation per site, the performer herself, and a
+ * `self-reported` meta tag, never mixed with an instructor's screening.
+ */
+export function selfCheckObservations(
+	check: SelfCheckView,
+	patientId: string,
+	origin: string
+): FhirResource[] {
+	if (!check.sites) return [];
+	const system = codeSystemUrl(origin);
+	return SITES.map((site) => {
+		const m = check.sites![site];
+		return {
+			resourceType: 'Observation',
+			id: `${check.id}-${SITE_INDEX[site]}`,
+			meta: { tag: [{ system, code: 'self-reported', display: 'Reported by the client herself' }] },
+			status: 'final',
+			category: [
+				{
+					coding: [
+						{
+							system: 'http://terminology.hl7.org/CodeSystem/observation-category',
+							code: 'exam'
+						}
+					]
+				}
+			],
+			code: {
+				coding: [{ system, code: 'gap-width-fingers', display: 'Midline gap, finger-width test' }],
+				text: 'Midline gap width (finger widths, her own check)'
+			},
+			subject: { reference: `Patient/${patientId}` },
+			performer: [{ reference: `Patient/${patientId}` }],
+			effectiveDateTime: check.takenAt,
+			bodySite: { coding: [{ system, code: site }], text: site.replaceAll('_', ' ') },
+			valueQuantity: {
+				value: m.widthFingers,
+				unit: 'finger widths',
+				system: UCUM,
+				code: '{finger-width}'
+			},
+			component: [
+				{
+					code: { coding: [{ system, code: 'gap-deep', display: 'The gap felt deep' }] },
+					valueBoolean: m.deep
+				},
+				{
+					code: { coding: [{ system, code: 'doming', display: 'Doming on effort' }] },
+					valueBoolean: m.doming
+				}
+			]
 		};
 	});
 }
@@ -206,6 +264,7 @@ export function buildClientBundle(
 	const resources: FhirResource[] = [
 		patientOf(input.client),
 		...input.screenings.flatMap((s) => siteObservations(s, patientId, origin)),
+		...(input.selfChecks ?? []).flatMap((c) => selfCheckObservations(c, patientId, origin)),
 		...input.referrals.flatMap((r) => referralResources(r, patientId)),
 		...input.consents.map((c) => consentOf(c, patientId, origin))
 	];

@@ -26,7 +26,8 @@ export const GET: RequestHandler = apiHandler(async ({ locals, url }) => {
 				client: data.client,
 				screenings: data.screenings.items,
 				consents: data.consents.grants,
-				referrals: data.referrals
+				referrals: data.referrals,
+				selfChecks: data.selfChecks.checks
 			},
 			config().ORIGIN,
 			new Date(data.exportedAt)
