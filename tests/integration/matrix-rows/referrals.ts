@@ -120,6 +120,20 @@ export const REFERRAL_ROWS: Row[] = [
 		expect: api(only(LINDEN_INSTRUCTORS, 200))
 	},
 	{ route: '/api/v1/referrals/[id]', call: 'GET', sample: NOBODY, expect: api(only([], 200)) },
+	// The referral as a FHIR Bundle: the same readers as the referral itself.
+	{
+		route: '/api/v1/referrals/[id]/fhir',
+		call: 'GET',
+		sample: ACTIVE,
+		expect: api(only([...LINDEN_INSTRUCTORS, ...FERNBANK_PHYSIO], 200))
+	},
+	{
+		route: '/api/v1/referrals/[id]/fhir',
+		call: 'GET',
+		sample: NONE,
+		expect: api(only(LINDEN_INSTRUCTORS, 200))
+	},
+	{ route: '/api/v1/referrals/[id]/fhir', call: 'GET', sample: NOBODY, expect: api(only([], 200)) },
 	// Her live screening history: the clinic while consent lasts; refused (403, logged) after.
 	{
 		route: '/api/v1/referrals/[id]/screenings',

@@ -4,8 +4,11 @@ import { REFERRAL_STATES } from '$lib/domain/referral';
 import type { ClientDetail, ScreeningView } from '$lib/clients/types';
 import type { ConsentGrantView } from '../consents/service';
 import type { ClientReferral } from '../referrals/for-client';
+import type { ReferralDetail } from '$lib/referrals/types';
+import type { DocumentItem } from '../documents/service';
 import {
 	buildClientBundle,
+	buildReferralBundle,
 	CONSENT_STATUS,
 	SERVICE_REQUEST_STATUS,
 	TASK_STATUS,
@@ -159,5 +162,76 @@ describe('the client’s FHIR R4 Bundle', () => {
 		expect(requests.map((e) => e.resource.intent)).toEqual(REFERRAL_STATES.map(() => 'proposal'));
 		// Withdrawal is `inactive`: "withdrawn" is not an R4 Consent status.
 		expect(CONSENT_STATUS.withdrawn).toBe('inactive');
+	});
+});
+
+describe('a referral as a FHIR R4 Bundle for the clinic', () => {
+	it('ServiceRequest with reason and priority, Task, Observations and a DocumentReference validate', () => {
+		const detail = {
+			id: 'a0000000-0000-4000-8000-0000000000aa',
+			state: 'accepted',
+			clientId: client.id,
+			clinicId: 'b0000000-0000-4000-8000-0000000000bb',
+			physioId: null,
+			urgency: 'soon',
+			createdAt: '2026-11-21T10:00:00.000Z',
+			sentAt: '2026-11-21T10:05:00.000Z',
+			clientName: client.name,
+			studioId: 'c0000000-0000-4000-8000-0000000000cc',
+			studioName: 'Invented Studio',
+			clinicName: 'Invented Pelvic Health',
+			physioName: 'Invented Physio',
+			reason: 'A gap of 2.5 finger widths at the navel, 12 weeks after the birth.',
+			redFlags: [],
+			createdById: null,
+			createdByName: 'Invented Instructor',
+			viewer: 'clinic',
+			client: { name: client.name, stage: 'postpartum' },
+			history: [
+				{
+					from: 'sent',
+					to: 'accepted',
+					at: '2026-11-22T09:00:00.000Z',
+					byName: 'Invented Physio',
+					byRole: 'physiotherapist',
+					reason: null
+				}
+			],
+			screenings: [screening],
+			snapshotTakenAt: null,
+			sharing: { status: 'active', endedAt: null, canSend: true, screeningsLive: true },
+			actions: []
+		} as unknown as ReferralDetail;
+		const documents: DocumentItem[] = [
+			{
+				id: 'd0000000-0000-4000-8000-0000000000dd',
+				name: 'Assessment.pdf',
+				share: 'studio',
+				size: 6144,
+				pages: 1,
+				uploadedAt: '2026-11-23T09:00:00.000Z',
+				uploadedBy: 'Invented Physio',
+				summary: 'Breathing and side-lying work for now.'
+			}
+		];
+		const b = buildReferralBundle(detail, documents, ORIGIN, new Date('2026-12-01T12:00:00Z'));
+		const result = new Fhir().validate(b);
+		expect(result.messages.filter((m) => m.severity === 'error')).toEqual([]);
+		const types = b.entry.map((e) => e.resource.resourceType);
+		expect(types).toEqual([
+			'Patient',
+			'ServiceRequest',
+			'Task',
+			'Observation',
+			'Observation',
+			'Observation',
+			'DocumentReference'
+		]);
+		const request = b.entry[1]!.resource;
+		expect(request).toMatchObject({ intent: 'proposal', status: 'active', priority: 'urgent' });
+		const doc = b.entry[6]!.resource as unknown as {
+			content: Array<{ attachment: { size: number } }>;
+		};
+		expect(doc.content[0]!.attachment.size).toBe(6144);
 	});
 });

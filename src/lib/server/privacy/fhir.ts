@@ -10,6 +10,8 @@ import type { ClientDetail, ScreeningView } from '$lib/clients/types';
 import type { ConsentGrantView } from '../consents/service';
 import type { ClientReferral } from '../referrals/for-client';
 import type { SelfCheckView } from '../self-care/service';
+import type { DocumentItem } from '../documents/service';
+import type { ReferralDetail } from '$lib/referrals/types';
 
 export type FhirResource = { resourceType: string; id: string } & Record<string, unknown>;
 export interface FhirBundle {
@@ -267,6 +269,85 @@ export function buildClientBundle(
 		...(input.selfChecks ?? []).flatMap((c) => selfCheckObservations(c, patientId, origin)),
 		...input.referrals.flatMap((r) => referralResources(r, patientId)),
 		...input.consents.map((c) => consentOf(c, patientId, origin))
+	];
+	return {
+		resourceType: 'Bundle',
+		type: 'collection',
+		timestamp: now.toISOString(),
+		entry: resources.map((resource) => ({
+			fullUrl: `${origin}/fhir/${resource.resourceType}/${resource.id}`,
+			resource
+		}))
+	};
+}
+
+/** A document the reader may download, as a DocumentReference pointing at the download. */
+export function documentReferenceOf(
+	doc: DocumentItem,
+	patientId: string,
+	origin: string
+): FhirResource {
+	return {
+		resourceType: 'DocumentReference',
+		id: doc.id,
+		status: 'current',
+		type: { text: 'Pelvic-health physiotherapy assessment' },
+		subject: { reference: `Patient/${patientId}` },
+		date: doc.uploadedAt,
+		...(doc.summary ? { description: doc.summary } : {}),
+		content: [
+			{
+				attachment: {
+					contentType: 'application/pdf',
+					url: `${origin}/api/v1/documents/${doc.id}`,
+					size: doc.size,
+					title: doc.name,
+					creation: doc.uploadedAt
+				}
+			}
+		]
+	};
+}
+
+/**
+ * One referral for the clinic's own record system: the Patient as the referral carries her,
+ * the ServiceRequest and the clinic's Task, the screening history sent with it and the
+ * documents the reader may download — what the referral page shows, nothing more.
+ */
+export function buildReferralBundle(
+	referral: ReferralDetail,
+	documents: DocumentItem[],
+	origin: string,
+	now = new Date()
+): FhirBundle {
+	const patientId = referral.clientId;
+	const last = referral.history.at(-1);
+	const [request, ...rest] = referralResources(
+		{
+			id: referral.id,
+			state: referral.state,
+			clinicName: referral.clinicName,
+			physioName: referral.physioName,
+			createdAt: referral.createdAt,
+			sentAt: referral.sentAt,
+			changedAt: last?.at ?? referral.createdAt,
+			clinicNote: last && last.byRole !== 'instructor' ? last.reason : null
+		},
+		patientId
+	);
+	const resources: FhirResource[] = [
+		{ resourceType: 'Patient', id: patientId, name: [{ text: referral.client.name }] },
+		{
+			...request!,
+			reasonCode: [{ text: referral.reason }],
+			requester: {
+				display: `${referral.createdByName ?? 'An instructor'}, ${referral.studioName}`
+			},
+			priority: referral.urgency === 'soon' ? 'urgent' : 'routine'
+		},
+		...rest,
+		...referral.screenings.flatMap((s) => siteObservations(s as ScreeningView, patientId, origin)),
+		...documents.map((d) => documentReferenceOf(d, patientId, origin))
 	];
 	return {
 		resourceType: 'Bundle',
