@@ -18,6 +18,12 @@ export const PLAN_ROWS: Row[] = [
 	// Pages (policy before the form: a person without access gets 404, not the form's 400)
 	{ route: '/(app)/plans', call: 'GET', expect: only(ALL_INSTRUCTORS, 200, { others: 403 }) },
 	{ route: '/(app)/plans', call: 'POST ?/create', expect: only(ALL_INSTRUCTORS, 400) },
+	{
+		route: '/(app)/plans/library',
+		call: 'GET',
+		expect: only(ALL_INSTRUCTORS, 200, { others: 403 })
+	},
+	{ route: '/(app)/plans/library', call: 'POST ?/create', expect: only(ALL_INSTRUCTORS, 400) },
 	// An empty form names no plan: 404 for everyone.
 	{ route: '/(app)/plans', call: 'POST ?/duplicate', expect: only([], 200) },
 	{ route: '/(app)/plans/[id]', call: 'GET', sample: CLASS, expect: only(LINDEN_INSTRUCTORS, 200) },
