@@ -50,5 +50,19 @@ for (const [label, width, height] of [
 		await page.getByRole('link', { name: 'Tuesday postnatal mat class' }).click();
 		await page.locator('#lib-q').fill(name.slice(0, 20));
 		await expect(page.getByText(name).first()).toBeVisible();
+
+		// Who the plan is for: add a client, save, and take her off again (the demo stays as it was).
+		await page.getByText(/^Who it is for/).click();
+		// Bea Sorensen: a demo client with intake consent who is not in the class.
+		const bea = page.getByRole('checkbox', { name: 'Bea Sorensen' });
+		await bea.check();
+		await page.getByRole('button', { name: 'Save who it is for' }).click();
+		const said = page.locator('p[role=status]').filter({ hasText: 'Who the plan is for is saved' });
+		await expect(said).toHaveCount(1);
+		await expect(page.getByTestId('cell-0-Bea')).toBeVisible();
+		await bea.uncheck();
+		await page.getByRole('button', { name: 'Save who it is for' }).click();
+		await expect(page.getByTestId('cell-0-Bea')).toHaveCount(0);
+		await expectAccessible(page);
 	});
 }

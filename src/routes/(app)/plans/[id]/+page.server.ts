@@ -1,5 +1,6 @@
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
+import { listClients } from '$lib/server/clients/service';
 import { checkPlanById, exerciseLibrary, getPlan } from '$lib/server/plans/service';
 import type { PageServerLoad } from './$types';
 
@@ -7,9 +8,15 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
 	const id = pageId(params.id);
 	const plan = await forPage(getPlan(caller, id));
-	const [check, library] = await Promise.all([
+	const [check, library, roster] = await Promise.all([
 		forPage(checkPlanById(caller, id)),
-		forPage(exerciseLibrary(caller))
+		forPage(exerciseLibrary(caller)),
+		forPage(listClients(caller, { sort: 'name', limit: 100 }))
 	]);
-	return { plan, check, library };
+	return {
+		plan,
+		check,
+		library,
+		roster: roster.items.map((c) => ({ id: c.id, name: c.name }))
+	};
 };
