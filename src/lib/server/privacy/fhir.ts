@@ -76,6 +76,48 @@ export function patientOf(client: ClientDetail): FhirResource {
 	};
 }
 
+/** One site's finger-width Observation: what a screening and her own check have in common. */
+function widthObservation(
+	origin: string,
+	patientId: string,
+	o: {
+		id: string;
+		takenAt: string;
+		site: Site;
+		widthFingers: number;
+		text: string;
+		component: Array<Record<string, unknown>>;
+	}
+): FhirResource {
+	const system = codeSystemUrl(origin);
+	return {
+		resourceType: 'Observation',
+		id: o.id,
+		status: 'final',
+		category: [
+			{
+				coding: [
+					{ system: 'http://terminology.hl7.org/CodeSystem/observation-category', code: 'exam' }
+				]
+			}
+		],
+		code: {
+			coding: [{ system, code: 'gap-width-fingers', display: 'Midline gap, finger-width test' }],
+			text: o.text
+		},
+		subject: { reference: `Patient/${patientId}` },
+		effectiveDateTime: o.takenAt,
+		bodySite: { coding: [{ system, code: o.site }], text: o.site.replaceAll('_', ' ') },
+		valueQuantity: {
+			value: o.widthFingers,
+			unit: 'finger widths',
+			system: UCUM,
+			code: '{finger-width}'
+		},
+		component: o.component
+	};
+}
+
 export function siteObservations(
 	screening: ScreeningView,
 	patientId: string,
@@ -107,35 +149,14 @@ export function siteObservations(
 				valueQuantity: { value: m.widthMm, unit: 'mm', system: UCUM, code: 'mm' }
 			});
 		}
-		return {
-			resourceType: 'Observation',
+		return widthObservation(origin, patientId, {
 			id: `${screening.id}-${SITE_INDEX[site]}`,
-			status: 'final',
-			category: [
-				{
-					coding: [
-						{
-							system: 'http://terminology.hl7.org/CodeSystem/observation-category',
-							code: 'exam'
-						}
-					]
-				}
-			],
-			code: {
-				coding: [{ system, code: 'gap-width-fingers', display: 'Midline gap, finger-width test' }],
-				text: 'Midline gap width (finger widths, screening by a movement instructor)'
-			},
-			subject: { reference: `Patient/${patientId}` },
-			effectiveDateTime: screening.takenAt,
-			bodySite: { coding: [{ system, code: site }], text: site.replaceAll('_', ' ') },
-			valueQuantity: {
-				value: m.widthFingers,
-				unit: 'finger widths',
-				system: UCUM,
-				code: '{finger-width}'
-			},
+			takenAt: screening.takenAt,
+			site,
+			widthFingers: m.widthFingers,
+			text: 'Midline gap width (finger widths, screening by a movement instructor)',
 			component
-		};
+		});
 	});
 }
 
@@ -153,44 +174,25 @@ export function selfCheckObservations(
 	return SITES.map((site) => {
 		const m = check.sites![site];
 		return {
-			resourceType: 'Observation',
-			id: `${check.id}-${SITE_INDEX[site]}`,
+			...widthObservation(origin, patientId, {
+				id: `${check.id}-${SITE_INDEX[site]}`,
+				takenAt: check.takenAt,
+				site,
+				widthFingers: m.widthFingers,
+				text: 'Midline gap width (finger widths, her own check)',
+				component: [
+					{
+						code: { coding: [{ system, code: 'gap-deep', display: 'The gap felt deep' }] },
+						valueBoolean: m.deep
+					},
+					{
+						code: { coding: [{ system, code: 'doming', display: 'Doming on effort' }] },
+						valueBoolean: m.doming
+					}
+				]
+			}),
 			meta: { tag: [{ system, code: 'self-reported', display: 'Reported by the client herself' }] },
-			status: 'final',
-			category: [
-				{
-					coding: [
-						{
-							system: 'http://terminology.hl7.org/CodeSystem/observation-category',
-							code: 'exam'
-						}
-					]
-				}
-			],
-			code: {
-				coding: [{ system, code: 'gap-width-fingers', display: 'Midline gap, finger-width test' }],
-				text: 'Midline gap width (finger widths, her own check)'
-			},
-			subject: { reference: `Patient/${patientId}` },
-			performer: [{ reference: `Patient/${patientId}` }],
-			effectiveDateTime: check.takenAt,
-			bodySite: { coding: [{ system, code: site }], text: site.replaceAll('_', ' ') },
-			valueQuantity: {
-				value: m.widthFingers,
-				unit: 'finger widths',
-				system: UCUM,
-				code: '{finger-width}'
-			},
-			component: [
-				{
-					code: { coding: [{ system, code: 'gap-deep', display: 'The gap felt deep' }] },
-					valueBoolean: m.deep
-				},
-				{
-					code: { coding: [{ system, code: 'doming', display: 'Doming on effort' }] },
-					valueBoolean: m.doming
-				}
-			]
+			performer: [{ reference: `Patient/${patientId}` }]
 		};
 	});
 }
