@@ -12,8 +12,7 @@ import {
 	type Person
 } from '../referrals/testing/fixtures';
 import { listOwnAccess } from './access';
-import { exportOwnData } from './export';
-import { buildClientBundle } from './fhir';
+import { exportOwnData, ownDataBundle } from './export';
 import { Fhir } from 'fhir';
 
 // The client's "who accessed my record" against the real database: reads by her instructor
@@ -113,16 +112,7 @@ describe('who accessed my record', () => {
 
 	it('her real record as a FHIR R4 Bundle validates (referral, consent, patient)', async () => {
 		const data = await exportOwnData(her.caller);
-		const bundle = buildClientBundle(
-			{
-				client: data.client,
-				screenings: data.screenings.items,
-				consents: data.consents.grants,
-				referrals: data.referrals,
-				selfChecks: data.selfChecks.checks
-			},
-			'https://seamwell.example'
-		);
+		const bundle = ownDataBundle(data, 'https://seamwell.example');
 		const types = bundle.entry.map((e) => e.resource.resourceType);
 		expect(types).toEqual(expect.arrayContaining(['Patient', 'ServiceRequest', 'Task', 'Consent']));
 		const result = new Fhir().validate(bundle);

@@ -10,6 +10,7 @@ import { plansForMe } from '../plans/service';
 import { listClientReferrals } from '../referrals/for-client';
 import { getOwnHomePractice, listOwnSelfChecks } from '../self-care/service';
 import { listOwnAccess, type OwnAccessItem } from './access';
+import { buildClientBundle, type FhirBundle } from './fhir';
 
 // "Download my data" as one JSON document (GDPR Art. 15 and 20): everything Seamwell shows
 // her about herself, read through the same services and policies as her own screens, so the
@@ -67,4 +68,21 @@ export async function exportOwnData(caller: Caller, now = new Date()) {
 		homePractice,
 		accessLog
 	};
+}
+
+export type OwnDataExport = Awaited<ReturnType<typeof exportOwnData>>;
+
+/** The same export as a FHIR R4 Bundle (what FHIR has resources for). */
+export function ownDataBundle(data: OwnDataExport, origin: string): FhirBundle {
+	return buildClientBundle(
+		{
+			client: data.client,
+			screenings: data.screenings.items,
+			consents: data.consents.grants,
+			referrals: data.referrals,
+			selfChecks: data.selfChecks.checks
+		},
+		origin,
+		new Date(data.exportedAt)
+	);
 }

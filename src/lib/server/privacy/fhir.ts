@@ -258,6 +258,19 @@ export function consentOf(
 	};
 }
 
+/** Resources as a Bundle of type collection, each under its own full URL. */
+function collection(resources: FhirResource[], origin: string, now: Date): FhirBundle {
+	return {
+		resourceType: 'Bundle',
+		type: 'collection',
+		timestamp: now.toISOString(),
+		entry: resources.map((resource) => ({
+			fullUrl: `${origin}/fhir/${resource.resourceType}/${resource.id}`,
+			resource
+		}))
+	};
+}
+
 /** Every resource of hers, each once, in one collection. */
 export function buildClientBundle(
 	input: FhirExportInput,
@@ -272,15 +285,7 @@ export function buildClientBundle(
 		...input.referrals.flatMap((r) => referralResources(r, patientId)),
 		...input.consents.map((c) => consentOf(c, patientId, origin))
 	];
-	return {
-		resourceType: 'Bundle',
-		type: 'collection',
-		timestamp: now.toISOString(),
-		entry: resources.map((resource) => ({
-			fullUrl: `${origin}/fhir/${resource.resourceType}/${resource.id}`,
-			resource
-		}))
-	};
+	return collection(resources, origin, now);
 }
 
 /** A document the reader may download, as a DocumentReference pointing at the download. */
@@ -351,13 +356,5 @@ export function buildReferralBundle(
 		...referral.screenings.flatMap((s) => siteObservations(s as ScreeningView, patientId, origin)),
 		...documents.map((d) => documentReferenceOf(d, patientId, origin))
 	];
-	return {
-		resourceType: 'Bundle',
-		type: 'collection',
-		timestamp: now.toISOString(),
-		entry: resources.map((resource) => ({
-			fullUrl: `${origin}/fhir/${resource.resourceType}/${resource.id}`,
-			resource
-		}))
-	};
+	return collection(resources, origin, now);
 }

@@ -3,8 +3,7 @@ import { z } from 'zod';
 import { requireApiCaller } from '$lib/server/context';
 import { apiHandler, readQuery } from '$lib/server/http/api';
 import { config } from '$lib/server/config';
-import { exportOwnData } from '$lib/server/privacy/export';
-import { buildClientBundle } from '$lib/server/privacy/fhir';
+import { exportOwnData, ownDataBundle } from '$lib/server/privacy/export';
 import type { RequestHandler } from './$types';
 
 const exportQuery = z.strictObject({
@@ -21,17 +20,7 @@ export const GET: RequestHandler = apiHandler(async ({ locals, url }) => {
 	const data = await exportOwnData(caller);
 	const day = data.exportedAt.slice(0, 10);
 	if (format === 'fhir') {
-		const bundle = buildClientBundle(
-			{
-				client: data.client,
-				screenings: data.screenings.items,
-				consents: data.consents.grants,
-				referrals: data.referrals,
-				selfChecks: data.selfChecks.checks
-			},
-			config().ORIGIN,
-			new Date(data.exportedAt)
-		);
+		const bundle = ownDataBundle(data, config().ORIGIN);
 		return new Response(JSON.stringify(bundle), {
 			headers: {
 				'Content-Type': 'application/fhir+json; charset=utf-8',
