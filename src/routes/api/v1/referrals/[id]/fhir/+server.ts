@@ -1,6 +1,6 @@
 import { requireApiCaller } from '$lib/server/context';
 import { config } from '$lib/server/config';
-import { listDocuments } from '$lib/server/documents/service';
+import { getDocumentPanel } from '$lib/server/documents/service';
 import { apiHandler, readId } from '$lib/server/http/api';
 import { buildReferralBundle } from '$lib/server/privacy/fhir';
 import { getReferral } from '$lib/server/referrals/service';
@@ -14,7 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ locals, params }) => {
 	const caller = requireApiCaller(locals);
 	const id = readId(params.id);
 	const referral = await getReferral(caller, id);
-	const documents = await listDocuments(caller, id, { limit: 100 });
+	// The referral page's own documents panel: the studio sees none without `documents` consent.
+	const documents = await getDocumentPanel(caller, id);
 	const bundle = buildReferralBundle(referral, documents.items, config().ORIGIN);
 	return new Response(JSON.stringify(bundle), {
 		headers: {
