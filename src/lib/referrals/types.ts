@@ -14,7 +14,8 @@ export interface ClinicItem {
 export interface ReferralListItem {
 	id: string;
 	state: ReferralState;
-	clientId: string;
+	/** Null once the studio erased the client's record (the clinic keeps the referral). */
+	clientId: string | null;
 	clinicId: string;
 	physioId: string | null;
 	urgency: Urgency;
@@ -25,6 +26,8 @@ export interface ReferralListItem {
 	studioName: string;
 	clinicName: string;
 	physioName: string | null;
+	/** When the studio erased the client's record; only the clinic still sees the referral. */
+	studioErasedAt: string | null;
 }
 
 export interface ReferralHistoryEntry {

@@ -95,6 +95,7 @@ export async function currentClearances(
 		)
 		.orderBy(asc(clearances.clientId), desc(clearances.setAt), desc(clearances.id));
 	for (const r of rows) {
+		if (r.clearance.clientId === null) continue; // the studio erased her (never asked for)
 		found.set(r.clearance.clientId, { ...limitsClearance(r.clearance, r), row: r.clearance });
 	}
 	return found;

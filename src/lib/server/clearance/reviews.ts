@@ -137,6 +137,7 @@ export async function sendReviewReminders(database: Database, today = todayUtc()
 
 async function queueReminders(tx: Executor, row: typeof clearances.$inferSelect): Promise<void> {
 	const origin = config().ORIGIN;
+	if (row.clientId === null) return; // the studio erased her record: nobody left to remind
 	const [client] = await tx
 		.select({ organisationId: clients.organisationId, userId: clients.userId })
 		.from(clients)

@@ -1,5 +1,5 @@
 import { and, eq, isNull } from 'drizzle-orm';
-import { sharingState, type SharingPair } from '../consents/grants';
+import { sharingState, type HeldPair } from '../consents/grants';
 import type { Executor } from '../db';
 import { clearances } from '../db/schema';
 
@@ -11,7 +11,7 @@ import { clearances } from '../db/schema';
 /** Stamps the pair's clearances once no grant in force shares clearances any longer. */
 export async function markClearancesSharingEnded(
 	tx: Executor,
-	pair: SharingPair,
+	pair: HeldPair,
 	now: Date
 ): Promise<number> {
 	if ((await sharingState(tx, pair, ['clearance'], now)).covered) return 0;

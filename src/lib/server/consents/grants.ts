@@ -17,10 +17,14 @@ import { consents } from '../db/schema';
 export type ConsentRow = typeof consents.$inferSelect;
 
 export interface SharingPair {
-	clientId: string;
+	/** Null for a referral the studio erased: no grant remains, nothing is shared any more. */
+	clientId: string | null;
 	studioId: string;
 	clinicId: string;
 }
+
+/** A pair whose client record exists (every pair but an erased referral's). */
+export type HeldPair = SharingPair & { clientId: string };
 
 /** Every grant between this client's studio and this clinic, newest first. */
 export async function grantsBetween(
@@ -28,6 +32,7 @@ export async function grantsBetween(
 	pair: SharingPair,
 	options: { lock?: boolean } = {}
 ): Promise<ConsentRow[]> {
+	if (pair.clientId === null) return [];
 	const query = executor
 		.select()
 		.from(consents)

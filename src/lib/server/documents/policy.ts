@@ -13,6 +13,8 @@ export interface DocumentReferral {
 	clinicId: string;
 	state: ReferralState;
 	sentAt: Date | null;
+	/** Set when the studio erased the client's record: only the clinic's side remains. */
+	studioErasedAt?: Date | null;
 }
 
 export interface DocumentScope {
@@ -30,7 +32,9 @@ export const UPLOAD_STATES: readonly ReferralState[] = ['accepted', 'assessed'];
 export function documentSide(actor: Actor, referral: DocumentReferral): 'clinic' | 'studio' | null {
 	const received = referral.state !== 'draft' && referral.sentAt !== null;
 	if (physioClinicIds(actor).includes(referral.clinicId) && received) return 'clinic';
-	if (instructorStudioIds(actor).includes(referral.studioId)) return 'studio';
+	if (!referral.studioErasedAt && instructorStudioIds(actor).includes(referral.studioId)) {
+		return 'studio';
+	}
 	return null;
 }
 

@@ -56,6 +56,22 @@ export const NOTIFICATION_WORDS = {
 		subject: 'A client gave consent to share — you can now send the referral',
 		line: 'A client has given her consent to share with a clinic. Sign in to send her referral.'
 	},
+	'erasure.requested': {
+		subject: 'A client asks your studio to erase her data',
+		line: 'A client has asked your studio to erase her data. The law gives you one month to answer; sign in to see what it covers and approve or decline.'
+	},
+	'erasure.approved': {
+		subject: 'Your studio has erased your data',
+		line: 'Your studio has erased your record, your screenings and your sign-in from Seamwell, as you asked. A clinic you were referred to keeps its own records, as the law requires of it.'
+	},
+	'erasure.declined': {
+		subject: 'Your studio answered your request to erase your data',
+		line: 'Your studio has declined your request to erase your data and written down why. Sign in to read its reason.'
+	},
+	'erasure.clinic_informed': {
+		subject: 'A studio erased its copy of a client you were referred',
+		line: "A studio has erased a client's record at her request. Your clinic's own records of the referral are unchanged; the studio no longer sees them, and nothing more is shared."
+	},
 	'practice.reminder': {
 		subject: 'A reminder from Seamwell: your home practice',
 		line: 'This is the reminder you asked for: a moment for your home practice and, if you like, a check of how you feel.'

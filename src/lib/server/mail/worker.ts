@@ -6,6 +6,10 @@ import { outbox } from '../db/schema';
 import { SIGNIN_LINK_SECONDS } from '../people/sessions';
 import { deliver, type SendMail } from './transport';
 
+/** The mail that confirms an erasure, and what its address becomes once it is sent. */
+export const ERASURE_CONFIRMATION_KIND = 'erasure.approved';
+export const ERASED_ADDRESS = 'erased@invalid';
+
 // The outbox worker: sends what queueMail wrote, through nodemailer.
 //
 // - Woken at once: a trigger NOTIFYs 'seamwell_outbox' when a row is inserted (at commit of
@@ -158,9 +162,13 @@ async function sendClaimed(
 		return result.rows[0]?.state === 'failed' ? 'failed' : 'retry';
 	}
 	// Accepted by the SMTP server: record it, insisting, since a lost update means a resend.
+	// The confirmation of an erasure is the last trace of the person's address: once it is
+	// sent, the row forgets where it went (see privacy/erasure.ts).
 	await withRetries(() =>
 		database.execute(
-			sql`update outbox set state = 'sent', sent_at = now(), last_error = null where ${ours}`
+			sql`update outbox set state = 'sent', sent_at = now(), last_error = null,
+				"to" = case when kind = ${ERASURE_CONFIRMATION_KIND} then ${ERASED_ADDRESS} else "to" end
+				where ${ours}`
 		)
 	);
 	return 'sent';

@@ -327,7 +327,9 @@ export function buildReferralBundle(
 	origin: string,
 	now = new Date()
 ): FhirBundle {
-	const patientId = referral.clientId;
+	// A referral whose studio erased her record keeps the clinic's copy of who she was; the
+	// Patient then takes a local id of its own (the studio's record id is gone).
+	const patientId = referral.clientId ?? `erased-${referral.id}`;
 	const last = referral.history.at(-1);
 	const [request, ...rest] = referralResources(
 		{

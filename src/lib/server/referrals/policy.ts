@@ -12,7 +12,12 @@ export interface ReferralScope {
 	clinicId: string;
 	physioId: string | null;
 	state: ReferralState;
+	/** Set when the studio erased the client's record: the studio's side is gone. */
+	studioErasedAt?: Date | null;
 }
+
+/** The studio still holds this referral (it has not erased the client's record). */
+const studioHolds = (referral: ReferralScope) => !referral.studioErasedAt;
 
 /** The clinics where she is a physiotherapist. */
 export function physioClinicIds(actor: Actor): string[] {
@@ -53,14 +58,16 @@ export function mayReferClient(actor: Actor, client: { organisationId: string })
 
 /** Instructors of the referring studio; physiotherapists of the clinic once it is sent. */
 export function mayReadReferral(actor: Actor, referral: ReferralScope): boolean {
-	if (instructorStudioIds(actor).includes(referral.studioId)) return true;
+	if (studioHolds(referral) && instructorStudioIds(actor).includes(referral.studioId)) return true;
 	return physioClinicIds(actor).includes(referral.clinicId) && referral.state !== 'draft';
 }
 
 /** In which of the transition table's parts she stands to this referral. */
 export function transitionRoles(actor: Actor, referral: ReferralScope): TransitionActor[] {
 	const roles: TransitionActor[] = [];
-	if (instructorStudioIds(actor).includes(referral.studioId)) roles.push('studio_instructor');
+	if (studioHolds(referral) && instructorStudioIds(actor).includes(referral.studioId)) {
+		roles.push('studio_instructor');
+	}
 	if (physioClinicIds(actor).includes(referral.clinicId)) {
 		if (referral.physioId === null || referral.physioId === actor.userId) {
 			roles.push('clinic_physio');

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, ne, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
 import { SCOPES_TO_SEND_REFERRAL } from '../../domain/consent';
@@ -58,6 +58,21 @@ import { snapshotClient, snapshotScreenings } from './snapshot';
 type ReferralRow = typeof referrals.$inferSelect;
 
 /** A referral the caller may see; anything else is logged as refused and answers 404. */
+/**
+ * The client a referral belongs to, for work that needs her record. Only a referral the
+ * studio erased has none, and nobody reaches such work for it: the studio no longer sees it
+ * and the clinic's sharing with her ended with the erasure. Should that ever change, the
+ * answer is a refusal, not a crash.
+ */
+function heldClientId(row: { clientId: string | null }): string {
+	if (row.clientId === null) {
+		throw new ProblemError('conflict', {
+			detail: "The studio erased this client's record; the referral can only be read."
+		});
+	}
+	return row.clientId;
+}
+
 async function visibleReferral(
 	caller: Caller,
 	id: string,
@@ -273,11 +288,15 @@ function escapeLike(term: string): string {
 }
 
 /** Instructors see their studios' referrals; physiotherapists their clinics', never drafts. */
+const clientNameSql = sql<string>`coalesce(${clients.name}, ${referralSnapshots.client}->>'name', 'Erased client')`;
+
 function visibility(caller: Caller): SQL {
 	const studios = instructorStudioIds(caller.actor);
 	const clinics = physioClinicIds(caller.actor);
 	const parts: SQL[] = [];
-	if (studios.length) parts.push(inArray(referrals.studioId, studios));
+	if (studios.length) {
+		parts.push(and(inArray(referrals.studioId, studios), isNull(referrals.studioErasedAt))!);
+	}
 	if (clinics.length) {
 		parts.push(and(inArray(referrals.clinicId, clinics), ne(referrals.state, 'draft'))!);
 	}
@@ -286,7 +305,8 @@ function visibility(caller: Caller): SQL {
 
 const listColumns = {
 	referral: referrals,
-	clientName: clients.name,
+	// After the studio erased her record the clinic still names her as it received her.
+	clientName: clientNameSql,
 	studioName: studioOrg.name,
 	clinicName: clinicOrg.name,
 	physioName: physioUser.name,
@@ -318,6 +338,7 @@ function toListItem(row: ListRow): ReferralListItem {
 		createdAt: r.createdAt.toISOString(),
 		sentAt: r.sentAt?.toISOString() ?? null,
 		clientName: row.clientName,
+		studioErasedAt: r.studioErasedAt?.toISOString() ?? null,
 		studioId: r.studioId,
 		studioName: row.studioName,
 		clinicName: row.clinicName,
@@ -358,7 +379,7 @@ export async function listReferrals(
 	}
 	const where: SQL[] = [visibility(caller)];
 	if (query.state.length) where.push(inArray(referrals.state, query.state));
-	if (query.q) where.push(sql`${clients.name} ilike ${`%${escapeLike(query.q)}%`}`);
+	if (query.q) where.push(sql`${clientNameSql} ilike ${`%${escapeLike(query.q)}%`}`);
 	if (after) {
 		const byDate = sql`(${sortAt}, ${referrals.id}) < (${after.t}::timestamptz, ${after.id}::uuid)`;
 		where.push(
@@ -376,7 +397,8 @@ export async function listReferrals(
 		const rows = (await tx
 			.select(listColumns)
 			.from(referrals)
-			.innerJoin(clients, eq(clients.id, referrals.clientId))
+			.leftJoin(clients, eq(clients.id, referrals.clientId))
+			.leftJoin(referralSnapshots, eq(referralSnapshots.referralId, referrals.id))
 			.innerJoin(studioOrg, eq(studioOrg.id, referrals.studioId))
 			.innerJoin(clinicOrg, eq(clinicOrg.id, referrals.clinicId))
 			.leftJoin(physioUser, eq(physioUser.id, referrals.physioId))
@@ -507,7 +529,8 @@ export async function getReferral(caller: Caller, id: string): Promise<ReferralD
 		const [listRow] = (await tx
 			.select({ ...listColumns, creatorName: creatorUser.name })
 			.from(referrals)
-			.innerJoin(clients, eq(clients.id, referrals.clientId))
+			.leftJoin(clients, eq(clients.id, referrals.clientId))
+			.leftJoin(referralSnapshots, eq(referralSnapshots.referralId, referrals.id))
 			.innerJoin(studioOrg, eq(studioOrg.id, referrals.studioId))
 			.innerJoin(clinicOrg, eq(clinicOrg.id, referrals.clinicId))
 			.leftJoin(physioUser, eq(physioUser.id, referrals.physioId))
@@ -541,11 +564,12 @@ export async function getReferral(caller: Caller, id: string): Promise<ReferralD
 			shown = snapshot.screenings;
 		} else {
 			// A draft: only its own studio sees it, and the preview is the record as it stands.
-			const [record] = await tx.select().from(clients).where(eq(clients.id, current.clientId));
+			const clientId = heldClientId(current);
+			const [record] = await tx.select().from(clients).where(eq(clients.id, clientId));
 			const history = await tx
 				.select()
 				.from(screenings)
-				.where(eq(screenings.clientId, current.clientId))
+				.where(eq(screenings.clientId, clientId))
 				.orderBy(asc(screenings.takenAt));
 			client = snapshotClient(record!);
 			shown = snapshotScreenings(history);
@@ -622,7 +646,7 @@ export async function listLiveScreenings(
 		}
 	}
 	return db().transaction(async (tx) => {
-		const where: SQL[] = [eq(screenings.clientId, row.clientId)];
+		const where: SQL[] = [eq(screenings.clientId, heldClientId(row))];
 		if (after) {
 			where.push(
 				sql`(${screenings.takenAt}, ${screenings.id}) > (${after.t}::timestamptz, ${after.id}::uuid)`
@@ -810,11 +834,12 @@ function consentRequired(row: ReferralRow, transition: Transition): ProblemError
 
 /** The copy the clinic receives: her details and screening history as they are now. */
 async function takeSnapshot(tx: Executor, row: ReferralRow, now: Date): Promise<void> {
-	const [record] = await tx.select().from(clients).where(eq(clients.id, row.clientId));
+	const clientId = heldClientId(row);
+	const [record] = await tx.select().from(clients).where(eq(clients.id, clientId));
 	const history = await tx
 		.select()
 		.from(screenings)
-		.where(eq(screenings.clientId, row.clientId))
+		.where(eq(screenings.clientId, clientId))
 		.orderBy(asc(screenings.takenAt));
 	await tx.insert(referralSnapshots).values({
 		referralId: row.id,

@@ -4,7 +4,7 @@ import { recordAccess } from '../audit';
 import type { Caller } from '../context';
 import type { Transaction } from '../db';
 import { referralEvents, referrals } from '../db/schema';
-import type { SharingPair } from '../consents/grants';
+import type { HeldPair } from '../consents/grants';
 import { clinicRecipients, instructorRecipient, notifyAll } from './notify';
 
 // When a client withdraws consent, the clinic can no longer act on her open referrals: each
@@ -16,7 +16,7 @@ import { clinicRecipients, instructorRecipient, notifyAll } from './notify';
 export async function withdrawOpenReferrals(
 	tx: Transaction,
 	caller: Caller,
-	pair: SharingPair
+	pair: HeldPair
 ): Promise<number> {
 	// Lock the open referrals first, so a physiotherapist's concurrent accept either lands
 	// before (and is withdrawn here) or finds the state changed (409).

@@ -41,9 +41,8 @@ export const assessments = pgTable(
 		referralId: uuid('referral_id')
 			.notNull()
 			.references(() => referrals.id, { onDelete: 'cascade' }),
-		clientId: uuid('client_id')
-			.notNull()
-			.references(() => clients.id, { onDelete: 'cascade' }),
+		/** Null once the studio erased her record: the clinic keeps its own (see privacy/erasure). */
+		clientId: uuid('client_id').references(() => clients.id, { onDelete: 'set null' }),
 		clinicId: uuid('clinic_id')
 			.notNull()
 			.references(() => organisations.id, { onDelete: 'cascade' }),
@@ -68,9 +67,8 @@ export const clearances = pgTable(
 	'clearances',
 	{
 		id: uuid('id').primaryKey().defaultRandom(),
-		clientId: uuid('client_id')
-			.notNull()
-			.references(() => clients.id, { onDelete: 'cascade' }),
+		/** Null once the studio erased her record: the clinic keeps its own (see privacy/erasure). */
+		clientId: uuid('client_id').references(() => clients.id, { onDelete: 'set null' }),
 		clinicId: uuid('clinic_id')
 			.notNull()
 			.references(() => organisations.id, { onDelete: 'cascade' }),

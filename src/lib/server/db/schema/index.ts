@@ -8,3 +8,4 @@ export * from './documents';
 export * from './clearance';
 export * from './plans';
 export * from './self-care';
+export * from './privacy';

@@ -117,9 +117,8 @@ export const referrals = pgTable(
 	'referrals',
 	{
 		id: uuid('id').primaryKey().defaultRandom(),
-		clientId: uuid('client_id')
-			.notNull()
-			.references(() => clients.id, { onDelete: 'cascade' }),
+		/** Null once the studio erased her record: the clinic keeps its own (see privacy/erasure). */
+		clientId: uuid('client_id').references(() => clients.id, { onDelete: 'set null' }),
 		studioId: uuid('studio_id')
 			.notNull()
 			.references(() => organisations.id, { onDelete: 'cascade' }),
@@ -137,13 +136,22 @@ export const referrals = pgTable(
 		sentAt: timestamp('sent_at', tzMs),
 		/** The grant in force when it was sent. */
 		consentId: uuid('consent_id').references(() => consents.id, { onDelete: 'set null' }),
-		updatedAt: timestamp('updated_at', tz).notNull().defaultNow()
+		updatedAt: timestamp('updated_at', tz).notNull().defaultNow(),
+		/**
+		 * When the studio erased the client's record (GDPR Art. 17): the studio no longer sees
+		 * this referral; the clinic keeps it, with what it received when it was sent.
+		 */
+		studioErasedAt: timestamp('studio_erased_at', tz)
 	},
 	(t) => [
 		index('referrals_studio_idx').on(t.studioId, t.createdAt),
 		index('referrals_clinic_idx').on(t.clinicId, t.sentAt),
 		index('referrals_client_idx').on(t.clientId),
 		// Past a draft it has been sent, except a draft withdrawn before sending.
+		check(
+			'referrals_erased_were_sent',
+			sql`${t.studioErasedAt} is null or (${t.clientId} is null and ${t.sentAt} is not null)`
+		),
 		check(
 			'referrals_sent_has_time',
 			sql`${t.state} in ('draft', 'withdrawn') or ${t.sentAt} is not null`

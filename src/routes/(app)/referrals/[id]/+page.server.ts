@@ -45,7 +45,7 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const [assessment, clearance] = clinicSide
 		? await Promise.all([
 				readAssessment(caller, id),
-				forPage(readClearance(caller, referral.clientId))
+				referral.clientId ? forPage(readClearance(caller, referral.clientId)) : null
 			])
 		: [null, null];
 	const assigned = referral.physioId === caller.actor.userId;
