@@ -120,7 +120,10 @@ async function resolveSamples(rows: Row[]): Promise<void> {
 				document: sql`select id from documents where file_name = ${name}
 					order by uploaded_at limit 1`,
 				// A demo session plan, by its title (see src/lib/server/demo/plans.ts).
-				plan: sql`select id from plans where title = ${name} limit 1`
+				plan: sql`select id from plans where title = ${name} limit 1`,
+				// A demo request to erase data, by the client who asked (see demo/privacy.ts).
+				erasure: sql`select e.id from erasure_requests e join clients c on c.id = e.client_id
+					where c.name = ${name} limit 1`
 			};
 			const lookup = lookups[kind!];
 			if (!lookup) throw new Error(`unknown sample kind ${kind}`);

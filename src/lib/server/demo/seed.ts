@@ -5,6 +5,7 @@ import { memberships, organisations, users } from '../db/schema';
 import { seedDemoClearances } from './clearances';
 import { seedDemoClients } from './clients';
 import { seedDemoPlans } from './plans';
+import { seedDemoDataRequests } from './privacy';
 import { seedDemoReferrals } from './referrals';
 import { demoOrganisations, demoPeople, type DemoOrganisationKey } from './scenario';
 
@@ -45,6 +46,7 @@ export async function seedDemo(database: Database): Promise<void> {
 		await seedDemoClearances(tx, orgIds, userIdsByEmail);
 		await seedDemoPlans(tx, orgIds, userIdsByEmail);
 		await seedDemoSelfCare(tx, orgIds, userIdsByEmail);
+		await seedDemoDataRequests(tx, orgIds);
 	});
 }
 

@@ -140,10 +140,7 @@ export async function eraseClient(
 					where c->>'clientId' <> ${clientId}), '[]'::jsonb))`
 			})
 			.where(
-				and(
-					eq(plans.organisationId, studioId),
-					sql`${plans.readyCheck}->'cells' @> ${cell}::jsonb`
-				)
+				and(eq(plans.organisationId, studioId), sql`${plans.readyCheck}->'cells' @> ${cell}::jsonb`)
 			)
 			.returning({ id: plans.id })
 	);
@@ -158,10 +155,7 @@ export async function eraseClient(
 				where c->>'clientId' <> ${clientId}), '[]'::jsonb)`
 		})
 		.where(
-			and(
-				inArray(planOverrides.planId, studioPlans),
-				sql`${planOverrides.cells} @> ${cell}::jsonb`
-			)
+			and(inArray(planOverrides.planId, studioPlans), sql`${planOverrides.cells} @> ${cell}::jsonb`)
 		);
 	counts.planOverridesRemoved = await count(
 		tx
@@ -174,14 +168,18 @@ export async function eraseClient(
 			)
 			.returning({ id: planOverrides.id })
 	);
-	const [cascaded] = await tx.execute<Record<string, number>>(sql`
+	const [cascaded] = await tx
+		.execute<Record<string, number>>(
+			sql`
 		select
 			(select count(*)::int from screenings where client_id = ${clientId}) as screenings,
 			(select count(*)::int from consents where client_id = ${clientId}) as consents,
 			(select count(*)::int from self_checks where client_id = ${clientId}) as "selfChecks",
 			(select count(*)::int from home_practice_sessions where client_id = ${clientId}) as "practiceSessions",
 			(select count(*)::int from plan_clients where client_id = ${clientId}) as "planPlaces"
-	`).then((r) => r.rows);
+	`
+		)
+		.then((r) => r.rows);
 	Object.assign(counts, cascaded);
 	await tx.delete(clients).where(eq(clients.id, clientId));
 	counts.clientRecords = 1;
@@ -224,4 +222,3 @@ export async function eraseClient(
 	}
 	return { counts, keptReferralIds: keptIds };
 }
-

@@ -82,7 +82,10 @@ export const ERASURE_RULES: Record<TableName, ErasureRule> = {
 		rule: 'clinic',
 		what: "The clinic's assessment documents; the studio loses access (files stay in the clinic's store)."
 	},
-	access_log: { rule: 'log', what: 'Every access stays on record under a key that maps to nothing.' },
+	access_log: {
+		rule: 'log',
+		what: 'Every access stays on record under a key that maps to nothing.'
+	},
 	access_log_seals: { rule: 'log', what: 'The seal chain, unchanged.' },
 	erasure_requests: {
 		rule: 'receipt',

@@ -105,7 +105,11 @@ async function fullClient(label: string) {
 	const token = randomUUID();
 	await db()
 		.insert(sessions)
-		.values({ sessionToken: token, userId: her.userId, expires: new Date(Date.now() + 86_400_000) });
+		.values({
+			sessionToken: token,
+			userId: her.userId,
+			expires: new Date(Date.now() + 86_400_000)
+		});
 	return { her, referralId, documentId: document.id, draftId, token };
 }
 
@@ -158,9 +162,7 @@ describe('deciding', () => {
 		const { id } = await requestErasure(her.caller);
 		expect(await statusOf(listErasureRequests(instructor.caller))).toBe(403);
 		expect(await statusOf(getErasureRequest(otherAdmin.caller, id))).toBe(404);
-		expect(await statusOf(decideErasure(otherAdmin.caller, id, { decision: 'approve' }))).toBe(
-			404
-		);
+		expect(await statusOf(decideErasure(otherAdmin.caller, id, { decision: 'approve' }))).toBe(404);
 		expect((await listErasureRequests(otherAdmin.caller)).map((r) => r.id)).not.toContain(id);
 		const listed = await listErasureRequests(admin.caller, { state: 'open' });
 		expect(listed.find((r) => r.id === id)?.client?.id).toBe(her.clientId);
@@ -299,7 +301,11 @@ describe('approving', () => {
 
 		expect(await statusOf(getReferral(instructor.caller, referralId))).toBe(404);
 		expect(await statusOf(downloadDocument(instructor.caller, documentId))).toBe(404);
-		const studioList = await listReferrals(instructor.caller, { state: [], sort: 'date', limit: 100 });
+		const studioList = await listReferrals(instructor.caller, {
+			state: [],
+			sort: 'date',
+			limit: 100
+		});
 		expect(studioList.items.map((i) => i.id)).not.toContain(referralId);
 		const clinicList = await listReferrals(physio.caller, { state: [], sort: 'date', limit: 100 });
 		expect(clinicList.items.map((i) => i.id)).toContain(referralId);
@@ -319,7 +325,9 @@ describe('approving', () => {
 		const confirmations = await db()
 			.select()
 			.from(outbox)
-			.where(sql`${outbox.kind} = 'erasure.approved' and (${outbox.to} = ${her.email} or ${outbox.to} = 'erased@invalid')`);
+			.where(
+				sql`${outbox.kind} = 'erasure.approved' and (${outbox.to} = ${her.email} or ${outbox.to} = 'erased@invalid')`
+			);
 		expect(confirmations.length).toBeGreaterThanOrEqual(1);
 	});
 

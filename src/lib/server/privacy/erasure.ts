@@ -196,6 +196,43 @@ export async function listOwnErasureRequests(
 	return rows.map((row) => toItem(row, now));
 }
 
+/** What asking would mean for her, in words for the Privacy page. */
+export interface ErasureOutlook {
+	studioName: string;
+	/** The day her studio would have to answer by, were she to ask today. */
+	dueIfAskedToday: string;
+	/** Clinics that received a referral of hers: they keep their own records. */
+	clinicsKeeping: string[];
+	requests: ErasureRequestItem[];
+}
+
+/** Policy: the client herself; null for anyone else. Not logged: it reads only her own. */
+export async function erasureOutlook(
+	caller: Caller,
+	now = new Date()
+): Promise<ErasureOutlook | null> {
+	const actor = caller.actor;
+	if (!mayReadOwnRecord(actor)) return null;
+	const [studio] = await db()
+		.select({ name: organisations.name })
+		.from(clients)
+		.innerJoin(organisations, eq(organisations.id, clients.organisationId))
+		.where(eq(clients.id, actor.clientId));
+	if (!studio) return null;
+	const clinics = await db()
+		.selectDistinct({ name: organisations.name })
+		.from(referrals)
+		.innerJoin(organisations, eq(organisations.id, referrals.clinicId))
+		.where(and(eq(referrals.clientId, actor.clientId), isNotNull(referrals.sentAt)))
+		.orderBy(organisations.name);
+	return {
+		studioName: studio.name,
+		dueIfAskedToday: erasureDueOn(now),
+		clinicsKeeping: clinics.map((c) => c.name),
+		requests: await listOwnErasureRequests(caller, now)
+	};
+}
+
 // ── The studio's admin ───────────────────────────────────────────────────────────────────
 
 /**
@@ -248,7 +285,7 @@ export async function listErasureRequests(
 }
 
 /** The request, if the caller is an admin of its studio; else a logged 404. */
-async function visibleRequest(
+export async function visibleErasureRequest(
 	caller: Caller,
 	id: string,
 	action: 'erasure.read' | 'erasure.declined' | 'client.erased'
@@ -269,10 +306,9 @@ export async function getErasureRequest(
 	id: string,
 	now = new Date()
 ): Promise<{ request: ErasureRequestItem; preview: ErasurePreview | null }> {
-	const row = await visibleRequest(caller, id, 'erasure.read');
+	const row = await visibleErasureRequest(caller, id, 'erasure.read');
 	return db().transaction(async (tx) => {
-		const [item] = await selectItems(tx)
-			.where(eq(erasureRequests.id, id));
+		const [item] = await selectItems(tx).where(eq(erasureRequests.id, id));
 		await recordAccess(tx, caller.access, {
 			action: 'erasure.read',
 			outcome: 'success',
@@ -282,7 +318,14 @@ export async function getErasureRequest(
 		const request = toItem(item!, now);
 		if (row.state !== 'open' || !row.clientId) return { request, preview: null };
 		const c = row.clientId;
-		const counted = async (table: typeof screenings | typeof selfChecks | typeof homePracticeSessions | typeof consents | typeof planClients) => {
+		const counted = async (
+			table:
+				| typeof screenings
+				| typeof selfChecks
+				| typeof homePracticeSessions
+				| typeof consents
+				| typeof planClients
+		) => {
 			const [r] = await tx.select({ n: count() }).from(table).where(eq(table.clientId, c));
 			return r?.n ?? 0;
 		};
@@ -335,7 +378,7 @@ export async function decideErasure(
 	now = new Date()
 ): Promise<ErasureRequestItem> {
 	const action = decision.decision === 'approve' ? 'client.erased' : 'erasure.declined';
-	await visibleRequest(caller, id, action);
+	await visibleErasureRequest(caller, id, action);
 	return db().transaction(async (tx) => {
 		const [row] = await tx
 			.select()
@@ -396,8 +439,7 @@ export async function decideErasure(
 				})
 				.where(eq(erasureRequests.id, id));
 		}
-		const [item] = await selectItems(tx)
-			.where(eq(erasureRequests.id, id));
+		const [item] = await selectItems(tx).where(eq(erasureRequests.id, id));
 		return toItem(item!, now);
 	});
 }

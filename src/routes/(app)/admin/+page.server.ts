@@ -6,6 +6,7 @@ import { listFailedMailFor, resendFailedMail } from '$lib/server/mail/service';
 import { failFromProblem } from '$lib/server/http/form';
 import { summariseActivity } from '$lib/server/audit/review/service';
 import { summariseArea } from '$lib/server/people/service';
+import { erasureRequestCounts, studioAdminIds } from '$lib/server/privacy/erasure';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
@@ -25,7 +26,11 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		week.refusal += w.counts.refusal;
 		if (w.unusual) week.unusual += 1;
 	}
-	return { summary, failedMail, week };
+	// Requests to erase data are answered by the studio that holds the record.
+	const dataRequests = studioAdminIds(caller.actor).length
+		? await erasureRequestCounts(caller)
+		: null;
+	return { summary, failedMail, week, dataRequests };
 };
 
 const resendForm = z.object({ mailId: z.uuid('Unknown mail.') });

@@ -49,7 +49,12 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 			])
 		: [null, null];
 	const assigned = referral.physioId === caller.actor.userId;
-	const mayAct = clinicSide && assigned && ASSESSABLE_STATES.includes(referral.state);
+	// A referral whose studio erased the client's record is kept to be read, not worked on.
+	const mayAct =
+		clinicSide &&
+		assigned &&
+		referral.clientId !== null &&
+		ASSESSABLE_STATES.includes(referral.state);
 	return {
 		referral,
 		live,
