@@ -7,6 +7,7 @@ import { createDatabase, type Database } from '../db';
 import { queueMail, queueNotification } from './outbox';
 import { createSmtpSender, type SendMail } from './transport';
 import {
+	ERASED_ADDRESS,
 	RETRY_WINDOW_MS,
 	backoffMs,
 	listFailedMail,
@@ -119,6 +120,32 @@ describe('the mail outbox', () => {
 			20_000
 		);
 		expect((await states(s.app))[0]).toMatchObject({ state: 'sent', attempts: 1 });
+	});
+
+	it('the confirmation of an erasure forgets its address once sent; other mail keeps it', async () => {
+		const { s, smtpPort, httpPort } = await setUp();
+		const w = worker(s.app, sender(smtpPort), { pollMs: 100 });
+		await w.ready;
+		const erased = uniqueAddress('erased');
+		const kept = uniqueAddress('kept');
+		await s.app.transaction(async (tx) => {
+			await queueNotification(tx, {
+				to: erased,
+				kind: 'erasure.approved',
+				link: 'https://seamwell.example/'
+			});
+			await queueMail(tx, mail(kept));
+		});
+		await until(
+			() => states(s.app),
+			(rows) => rows.length === 2 && rows.every((r) => r.state === 'sent'),
+			20_000
+		);
+		expect((await messagesTo(httpPort, erased)).map((m) => m.subject)).toEqual([
+			'Your studio has erased your data'
+		]);
+		const addresses = (await states(s.app)).map((r) => r.to).sort();
+		expect(addresses).toEqual([ERASED_ADDRESS, kept].sort());
 	});
 
 	it('a mail queued in a transaction that rolls back is never sent', async () => {

@@ -4,7 +4,10 @@ import { getOwnRecord } from '../clients/service';
 import { mayReadOwnRecord } from '../clients/policy';
 import { getConsentOverview } from '../consents/service';
 import { refuse, type Caller } from '../context';
+import { and, asc, eq } from 'drizzle-orm';
 import { db } from '../db';
+import { documents as documentRows, referrals as referralRows, users } from '../db/schema';
+import type { DocumentItem } from '../documents/service';
 import { notFound } from '../http/problem';
 import { plansForMe } from '../plans/service';
 import { listClientReferrals } from '../referrals/for-client';
@@ -32,6 +35,30 @@ async function wholeAccessList(caller: Caller): Promise<OwnAccessItem[]> {
 	return items;
 }
 
+/**
+ * The assessment documents the clinic shared with her studio (their description, not their
+ * contents: the PDF stays behind the sign-in, and the export points at it).
+ */
+async function documentsSharedWithStudio(clientId: string): Promise<DocumentItem[]> {
+	const rows = await db()
+		.select({ document: documentRows, uploader: users.name })
+		.from(documentRows)
+		.innerJoin(referralRows, eq(referralRows.id, documentRows.referralId))
+		.leftJoin(users, eq(users.id, documentRows.uploadedBy))
+		.where(and(eq(referralRows.clientId, clientId), eq(documentRows.share, 'studio')))
+		.orderBy(asc(documentRows.uploadedAt));
+	return rows.map(({ document: d, uploader }) => ({
+		id: d.id,
+		name: d.fileName,
+		share: d.share,
+		size: d.sizeBytes,
+		pages: d.pages,
+		uploadedAt: d.uploadedAt.toISOString(),
+		uploadedBy: uploader,
+		summary: d.summary
+	}));
+}
+
 /** Policy: the client herself (mayReadOwnRecord). Audit: client.exported. */
 export async function exportOwnData(caller: Caller, now = new Date()) {
 	const actor = caller.actor;
@@ -39,14 +66,16 @@ export async function exportOwnData(caller: Caller, now = new Date()) {
 		return refuse(caller, 'client.exported', notFound('You have no client record in Seamwell.'));
 	}
 	const record = await getOwnRecord(caller);
-	const [consents, referrals, clearance, inClass, selfChecks, homePractice] = await Promise.all([
-		getConsentOverview(caller),
-		listClientReferrals(caller, record.client.id),
-		readClearance(caller, record.client.id),
-		plansForMe(caller),
-		listOwnSelfChecks(caller),
-		getOwnHomePractice(caller)
-	]);
+	const [consents, referrals, clearance, inClass, selfChecks, homePractice, documents] =
+		await Promise.all([
+			getConsentOverview(caller),
+			listClientReferrals(caller, record.client.id),
+			readClearance(caller, record.client.id),
+			plansForMe(caller),
+			listOwnSelfChecks(caller),
+			getOwnHomePractice(caller),
+			documentsSharedWithStudio(record.client.id)
+		]);
 	await recordAccess(db(), caller.access, {
 		action: 'client.exported',
 		outcome: 'success',
@@ -62,6 +91,7 @@ export async function exportOwnData(caller: Caller, now = new Date()) {
 		screenings: record.history,
 		consents,
 		referrals,
+		documents,
 		clearance,
 		inClass,
 		selfChecks: { sharedWithStudio: selfChecks.shared, checks: selfChecks.checks },
@@ -80,7 +110,8 @@ export function ownDataBundle(data: OwnDataExport, origin: string): FhirBundle {
 			screenings: data.screenings.items,
 			consents: data.consents.grants,
 			referrals: data.referrals,
-			selfChecks: data.selfChecks.checks
+			selfChecks: data.selfChecks.checks,
+			documents: data.documents
 		},
 		origin,
 		new Date(data.exportedAt)

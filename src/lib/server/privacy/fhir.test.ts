@@ -87,6 +87,18 @@ function bundle(): FhirBundle {
 			consents: [
 				grant('active', 'c0000000-0000-4000-8000-000000000001'),
 				grant('withdrawn', 'c0000000-0000-4000-8000-000000000002')
+			],
+			documents: [
+				{
+					id: 'd0000000-0000-4000-8000-0000000000ee',
+					name: 'Assessment summary.pdf',
+					share: 'studio',
+					size: 4096,
+					pages: 2,
+					uploadedAt: '2026-11-20T09:00:00.000Z',
+					uploadedBy: 'Invented Physio',
+					summary: null
+				}
 			]
 		},
 		ORIGIN,
@@ -99,6 +111,25 @@ describe('the client’s FHIR R4 Bundle', () => {
 		const result = fhir.validate(bundle());
 		expect(result.messages.filter((m) => m.severity === 'error')).toEqual([]);
 		expect(result.valid).toBe(true);
+	});
+
+	it('a DocumentReference per document shared with her studio: current, with size, title and download URL', () => {
+		const refs = bundle().entry.filter((e) => e.resource.resourceType === 'DocumentReference');
+		expect(refs).toHaveLength(1);
+		expect(refs[0]!.resource).toMatchObject({
+			status: 'current',
+			subject: { reference: `Patient/${client.id}` },
+			content: [
+				{
+					attachment: {
+						size: 4096,
+						title: 'Assessment summary.pdf',
+						contentType: 'application/pdf',
+						url: `${ORIGIN}/api/v1/documents/d0000000-0000-4000-8000-0000000000ee`
+					}
+				}
+			]
+		});
 	});
 
 	it('the validator would catch a wrong status (so the check above can fail)', () => {

@@ -65,6 +65,8 @@ export interface FhirExportInput {
 	consents: ConsentGrantView[];
 	referrals: ClientReferral[];
 	selfChecks?: SelfCheckView[];
+	/** Documents the clinic shared with her studio: DocumentReferences to their download. */
+	documents?: DocumentItem[];
 }
 
 export function patientOf(client: ClientDetail): FhirResource {
@@ -283,7 +285,8 @@ export function buildClientBundle(
 		...input.screenings.flatMap((s) => siteObservations(s, patientId, origin)),
 		...(input.selfChecks ?? []).flatMap((c) => selfCheckObservations(c, patientId, origin)),
 		...input.referrals.flatMap((r) => referralResources(r, patientId)),
-		...input.consents.map((c) => consentOf(c, patientId, origin))
+		...input.consents.map((c) => consentOf(c, patientId, origin)),
+		...(input.documents ?? []).map((d) => documentReferenceOf(d, patientId, origin))
 	];
 	return collection(resources, origin, now);
 }
