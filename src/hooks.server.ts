@@ -1,4 +1,5 @@
 import {
+	error,
 	redirect,
 	type Handle,
 	type HandleFetch,
@@ -158,8 +159,37 @@ const requestShape: Handle = async ({ event, resolve }) => {
 		if (api) return problem('cross-origin', { detail, instance: event.url.pathname });
 		return new Response(detail, { status: 403, headers: { 'content-type': 'text/plain' } });
 	}
+	// Outside the API a POST is a form (Seamwell's pages and Auth.js's): anything but form data
+	// is refused here, before a form action tries to read it as one.
+	if (!api && event.request.method === 'POST' && !isFormContent(event.request)) {
+		return new Response(
+			'Forms are sent as form data (application/x-www-form-urlencoded or multipart/form-data).',
+			{
+				status: 415,
+				headers: { 'content-type': 'text/plain; charset=utf-8' }
+			}
+		);
+	}
+	if (!api && event.request.method === 'POST') {
+		// A form whose body does not parse (a broken multipart boundary, say) is the sender's
+		// error: 400 on the designed error page, not a 500 from inside the action.
+		const request = event.request;
+		const readForm = request.formData.bind(request);
+		request.formData = async () => {
+			try {
+				return await readForm();
+			} catch {
+				error(400, 'The form could not be read. Please send it again.');
+			}
+		};
+	}
 	return resolve(event);
 };
+
+function isFormContent(request: Request): boolean {
+	const type = (request.headers.get('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
+	return type === 'application/x-www-form-urlencoded' || type === 'multipart/form-data';
+}
 
 /** Who is asking and from where, for the access log: anonymous until the session is read. */
 const accessContext: Handle = async ({ event, resolve }) => {

@@ -2,8 +2,6 @@
 // called as every demo actor and as an anonymous visitor, against the table in
 // ./authorization-matrix.ts. A new route without a row fails the first test.
 import { randomBytes } from 'node:crypto';
-import { readFileSync, readdirSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { eq, inArray, sql } from 'drizzle-orm';
 import { createServer, type ViteDevServer } from 'vite';
@@ -13,6 +11,7 @@ import { accessLog, sessions, users } from '../../src/lib/server/db/schema';
 import { seedDemo } from '../../src/lib/server/demo/seed';
 import { deactivateMember } from '../../src/lib/server/people/service';
 import { callerFor, makePerson, makeSession } from './people-fixtures';
+import { discoverEndpoints, type Endpoint } from './routes';
 import {
 	MATRIX as CORE_ROWS,
 	PEOPLE,
@@ -41,64 +40,6 @@ const MATRIX: Row[] = [
 	...PRIVACY_ROWS,
 	...SELF_CARE_ROWS
 ];
-
-const ROUTES = 'src/routes';
-
-interface Endpoint {
-	route: string;
-	call: string;
-}
-
-/** Every page (GET), form action (POST ?/name) and endpoint method the code defines. */
-function discoverEndpoints(dir = ROUTES): Endpoint[] {
-	const found: Endpoint[] = [];
-	for (const name of readdirSync(dir)) {
-		const path = join(dir, name);
-		if (statSync(path).isDirectory()) {
-			found.push(...discoverEndpoints(path));
-			continue;
-		}
-		const route = '/' + relative(ROUTES, dir).split('\\').join('/');
-		const id = route === '/' ? '/' : route.replace(/\/$/, '');
-		const source = () => readFileSync(path, 'utf8');
-		if (name === '+page.svelte') found.push({ route: id, call: 'GET' });
-		if (name === '+page.server.ts' || name === '+page.server.js') {
-			for (const action of actionNames(source()))
-				found.push({ route: id, call: `POST ?/${action}` });
-		}
-		if (name === '+server.ts' || name === '+server.js') {
-			const methods = source().matchAll(
-				/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g
-			);
-			for (const [, method] of methods) found.push({ route: id, call: method! });
-		}
-	}
-	return found;
-}
-
-/**
- * The keys of `export const actions = { … }`, read from the source: the object's own text
- * (nested brackets left out) split at its top-level commas, each piece's leading name.
- */
-function actionNames(code: string): string[] {
-	const source = code.replace(/\/\*[\s\S]*?\*\//g, '').replace(/^\s*\/\/.*$/gm, '');
-	const start = source.search(/export\s+const\s+actions\b/);
-	if (start < 0) return [];
-	const open = source.indexOf('{', source.indexOf('=', start));
-	let depth = 0;
-	let own = '';
-	for (let i = open; i < source.length; i++) {
-		const c = source[i]!;
-		if ('{[('.includes(c)) depth++;
-		if (depth === 1 && i > open) own += c;
-		if ('}])'.includes(c)) depth--;
-		if (depth === 0) break;
-	}
-	return own
-		.split(',')
-		.map((piece) => piece.match(/^\s*(?:async\s+)?([A-Za-z_$][\w$]*)\s*[:(]/)?.[1])
-		.filter((name): name is string => Boolean(name));
-}
 
 const key = (e: Endpoint) => `${e.call.padEnd(18)} ${e.route}`;
 
