@@ -21,7 +21,9 @@ const schema = z.object({
 	MAIL_FROM: z.string().min(3).default('Seamwell <no-reply@seamwell.example>'),
 	// Sign-in requests allowed in any 15 minutes, per e-mail address and per client address.
 	RATE_LIMIT_SIGNIN_PER_EMAIL: z.coerce.number().int().positive().default(5),
-	RATE_LIMIT_SIGNIN_PER_IP: z.coerce.number().int().positive().default(30)
+	RATE_LIMIT_SIGNIN_PER_IP: z.coerce.number().int().positive().default(30),
+	/** `1` only when `npm run bench` starts the app: opens the benchmark's baseline route. */
+	SEAMWELL_BENCH: z.enum(['0', '1'], 'must be 0 or 1').default('0')
 });
 
 export type Config = z.infer<typeof schema>;
