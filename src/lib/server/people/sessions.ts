@@ -5,13 +5,7 @@ import { recordAccess, type AccessContext } from '../audit';
 import type { AuditAction, AuditOutcome } from '../audit';
 import { config } from '../config';
 import { db, type Executor } from '../db';
-import {
-	accessLog,
-	outbox,
-	sessions,
-	users,
-	verificationTokens
-} from '../db/schema';
+import { accessLog, outbox, sessions, users, verificationTokens } from '../db/schema';
 
 // Sessions and sign-in bookkeeping, called by hooks.server.ts and src/lib/server/auth.ts
 // (not by routes): reading a session without extending it, the idle and absolute limits,

@@ -51,10 +51,7 @@ export const erasureRequests = pgTable(
 		uniqueIndex('erasure_requests_one_open')
 			.on(t.clientId)
 			.where(sql`${t.state} = 'open'`),
-		check(
-			'erasure_requests_decided_whole',
-			sql`(${t.state} = 'open') = (${t.decidedAt} is null)`
-		),
+		check('erasure_requests_decided_whole', sql`(${t.state} = 'open') = (${t.decidedAt} is null)`),
 		check(
 			'erasure_requests_decline_has_reason',
 			sql`${t.state} <> 'declined' or (${t.reason} is not null and length(${t.reason}) > 0)`
