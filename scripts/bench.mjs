@@ -64,9 +64,11 @@ try {
 
 	log('loading the scale dataset (generate_series) …');
 	const seeded = Date.now();
-	await withClient(env.DATABASE_OWNER_URL, (c) =>
-		c.query(readFileSync(join(root, 'scripts/lib/scale-data.sql'), 'utf8'))
-	);
+	const sqlFile = (name) => readFileSync(join(root, 'scripts/lib', name), 'utf8');
+	await withClient(env.DATABASE_OWNER_URL, (c) => c.query(sqlFile('scale-data.sql')));
+	// Only the app's role may insert into the access log.
+	await withClient(env.DATABASE_URL, (c) => c.query(sqlFile('scale-log.sql')));
+	await withClient(env.DATABASE_OWNER_URL, (c) => c.query('analyze'));
 	const counts = await withClient(env.DATABASE_URL, async (c) => {
 		const r = await c.query(`select
 			(select count(*) from organisations where kind = 'studio')::int as studios,

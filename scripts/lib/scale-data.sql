@@ -70,22 +70,5 @@ insert into referral_events (referral_id, from_state, to_state, at)
 	select r.id, null, 'sent', r.sent_at from referrals r
 	join bench_clients c on c.id = r.client_id;
 
--- Subject keys for every bench client, then 1,000,000 log rows over the past year, each by a
--- member of the first bench studio on one client's record (so the admin's whole log is them).
+-- Subject keys for every bench client (the log rows below name them).
 insert into subject_keys (client_id) select id from bench_clients;
-create temporary table bench_keys as
-	select row_number() over (order by k.key) as n, k.key, k.client_id
-	from subject_keys k join bench_clients c on c.id = k.client_id;
-insert into access_log (at, actor_user_id, actor_role, actor_organisation_id, action,
-		target_type, target_id, subject_key, outcome, client_address, user_agent)
-	select now() - (g * interval '31 seconds'), u.id, 'instructor', s.id,
-		(array['client.read', 'screening.read', 'client.listed', 'screening.recorded', 'referral.read'])[(g % 5) + 1],
-		'client', k.client_id::text, k.key,
-		case when g % 97 = 0 then 'refused' else 'success' end, '192.0.2.10', 'bench/1.0'
-	from generate_series(1, 1000000) g
-	join bench_keys k on k.n = (g % 10000) + 1
-	cross join (select id from users where email = 'bench-instructor@bench.example') u
-	cross join (select id from bench_studios where n = 1) s
-	order by g desc;
-
-analyze;
