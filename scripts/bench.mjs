@@ -103,7 +103,7 @@ try {
 			client: await one(`select c.id from clients c join organisations o on o.id = c.organisation_id
 				where o.name = 'Bench studio 1' order by c.name limit 1`),
 			referral: await one(`select r.id from referrals r join organisations o on o.id = r.clinic_id
-				where o.name = 'Bench clinic 1' and r.state = 'accepted' limit 1`),
+				where o.name = 'Bench clinic 1' order by r.sent_at desc limit 1`),
 			classClients: (
 				await c.query(`select c.id from clients c join organisations o on o.id = c.organisation_id
 					where o.name = 'Bench studio 1' order by c.name limit 20`)
