@@ -185,6 +185,7 @@ try {
 	log('exporting the whole log as CSV …');
 	const exported = await exportWholeLog(admin, app.pid);
 	const pages = pageJavaScript();
+	log(`raw: ${JSON.stringify({ results, exported, chain, bootSeconds })}`);
 	report({ results, exported, chain, pages, bootSeconds, counts });
 } finally {
 	for (const step of cleanups.reverse()) await step();
@@ -368,8 +369,12 @@ function pageJavaScript() {
 	});
 }
 
-const fmt = (n, digits = 0) => (Number.isFinite(n) ? n.toFixed(digits) : 'n/a');
-const verdict = (ok) => (ok ? 'MET' : 'MISSED');
+function fmt(n, digits = 0) {
+	return Number.isFinite(n) ? n.toFixed(digits) : 'n/a';
+}
+function verdict(ok) {
+	return ok ? 'MET' : 'MISSED';
+}
 
 function report({ results, exported, chain, pages, bootSeconds, counts }) {
 	const framework = results.find((r) => r.name.startsWith('(b)'));
