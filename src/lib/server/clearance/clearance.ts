@@ -3,7 +3,6 @@ import type { ClearanceData } from '$lib/clearance/schemas';
 import type { ClearanceVersion, ClearanceView } from '$lib/clearance/types';
 import { effectiveLimits } from '../../domain/limits';
 import { recordAccess } from '../audit';
-import { instructorStudioIds } from '../clients/policy';
 import { sharingState } from '../consents/grants';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
@@ -23,6 +22,7 @@ import { queueNotification } from '../mail/outbox';
 import { instructorRecipient } from '../referrals/notify';
 import { limitsClearance, limitsClient, limitsScreening, selfReportsFor } from './limits';
 import { clearanceViewer, clearingReferrals, type ClearanceViewer } from './policy';
+import { instructorStudioIds } from '../scope';
 
 // Setting and reading a client's clearance. A new clearance supersedes the one before (the
 // client's row is locked while it is written, so two physiotherapists saving at once queue

@@ -1,7 +1,6 @@
 import type { ReferralState } from '../../domain/referral';
 import type { Actor } from '../actor';
-import { instructorStudioIds } from '../clients/policy';
-import { physioClinicIds } from '../referrals/policy';
+import { instructorStudioIds, physioClinicIds } from '../scope';
 
 // Who may record and read assessments, and set and read clearances. Pure functions of the
 // actor and the records; consent (read fresh, in the transaction) is checked by the service

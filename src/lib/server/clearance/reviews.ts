@@ -1,16 +1,15 @@
 import { and, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import type { ReviewItem } from '$lib/clearance/types';
 import { recordAccess, systemContext } from '../audit';
-import { instructorStudioIds } from '../clients/policy';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Database, type Executor } from '../db';
 import { clearances, clients, memberships, referrals, screenings, users } from '../db/schema';
 import { ProblemError } from '../http/problem';
 import { queueNotification } from '../mail/outbox';
-import { physioClinicIds } from '../referrals/policy';
 import { mayListReviews } from './policy';
 import { todayUtc } from './clearance';
+import { instructorStudioIds, physioClinicIds } from '../scope';
 
 // Review dates: the dashboards list current clearances due within REVIEW_SOON_DAYS and those
 // overdue; a background job queues one reminder REMINDER_DAYS before the review date to the

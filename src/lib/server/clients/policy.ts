@@ -1,19 +1,9 @@
 import type { Actor } from '../actor';
+import { instructorStudioIds } from '../scope';
 
 // Who may do what with client records. Pure functions of the actor and the record's studio;
 // the service asserts one at the start of every exported function. Instructors keep the
 // records of their own studio; a client sees only her own record.
-
-/** The studios where this person teaches (is an instructor). */
-export function instructorStudioIds(actor: Actor): string[] {
-	return [
-		...new Set(
-			actor.memberships
-				.filter((m) => m.kind === 'studio' && m.role === 'instructor')
-				.map((m) => m.organisationId)
-		)
-	];
-}
 
 /** May list and search client records: she teaches in at least one studio. */
 export function mayListClients(actor: Actor): boolean {

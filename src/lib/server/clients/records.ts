@@ -14,13 +14,7 @@ import { db } from '../db';
 import { clients } from '../db/schema';
 import { ProblemError, validationProblem } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
-import {
-	instructorStudioIds,
-	mayListClients,
-	mayReadClient,
-	mayWriteClient,
-	studioForNewClient
-} from './policy';
+import { mayListClients, mayReadClient, mayWriteClient, studioForNewClient } from './policy';
 import type { ClientDetail, ClientSummary } from '$lib/clients/types';
 import {
 	type ClientRow,
@@ -33,6 +27,7 @@ import {
 	toDetail,
 	toSummary
 } from './shared';
+import { instructorStudioIds } from '../scope';
 
 export interface ClientCounts {
 	/** Her studios' client records. */

@@ -1,5 +1,5 @@
 import type { Actor } from '../actor';
-import { instructorStudioIds } from '../clients/policy';
+import { instructorStudioIds, adminOrganisationIds } from '../scope';
 
 // Who may do what with consent to share. Pure functions of the actor and the record. Only the
 // client herself gives or withdraws her consent; her studio's instructors may ask her to; the
@@ -9,13 +9,6 @@ export interface ConsentScope {
 	clientId: string;
 	studioId: string;
 	clinicId: string;
-}
-
-/** The organisations where she is an admin. */
-export function adminOrganisationIds(actor: Actor): string[] {
-	return [
-		...new Set(actor.memberships.filter((m) => m.role === 'admin').map((m) => m.organisationId))
-	];
 }
 
 /** Her own grants (she is a client), or her organisations' (she is an admin). */

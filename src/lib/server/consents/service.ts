@@ -29,13 +29,13 @@ import { instructorRecipient } from '../referrals/notify';
 import { markClearancesSharingEnded } from '../clearance/sharing-ended';
 import { withdrawOpenReferrals } from '../referrals/sharing-ended';
 import {
-	adminOrganisationIds,
 	mayGiveConsent,
 	mayListConsents,
 	mayRequestAnyConsent,
 	mayRequestConsent,
 	mayWithdrawConsent
 } from './policy';
+import { adminOrganisationIds } from '../scope';
 
 // Consent to share between a client's studio and one clinic. The client gives and withdraws
 // her own grants; her studio's instructors may ask her to; admins read their organisation's.

@@ -1,6 +1,6 @@
 import type { ReferralState } from '../../domain/referral';
 import type { Actor } from '../actor';
-import { instructorStudioIds, physioClinicIds } from '../referrals/policy';
+import { instructorStudioIds, physioClinicIds } from '../scope';
 
 // Who may add, see, change and download a referral's assessment documents and its letter.
 // Pure functions of the actor, the referral, the document and (where sharing flows from the

@@ -1,15 +1,11 @@
 import type { Actor, MemberRole, Membership, OrganisationKind } from '../actor';
 import { ProblemError, notFound } from '../http/problem';
+import { activeMemberships } from '../scope';
 
 // Pure rules about people: who may see which area, who may manage an organisation's
 // members. No I/O. A refusal is a 404 wherever a 403 would confirm that something exists.
 
 export type Area = 'instructor' | 'physiotherapist' | 'admin' | 'client';
-
-/** The memberships she holds in the organisation she is acting in. */
-export function activeMemberships(actor: Actor): Membership[] {
-	return actor.memberships.filter((m) => m.organisationId === actor.activeOrganisationId);
-}
 
 export function hasActiveRole(actor: Actor, role: MemberRole): boolean {
 	return activeMemberships(actor).some((m) => m.role === role);

@@ -8,15 +8,8 @@ import { db, type Executor } from '../db';
 import { invitations, memberships, organisations, sessions, users } from '../db/schema';
 import { ProblemError, notFound } from '../http/problem';
 import { queueMail } from '../mail/outbox';
-import {
-	activeMemberships,
-	assertAdmin,
-	assertArea,
-	assertRoleFits,
-	assertSelf,
-	rolesFor,
-	type Area
-} from './policy';
+import { assertAdmin, assertArea, assertRoleFits, assertSelf, rolesFor, type Area } from './policy';
+import { activeMemberships } from '../scope';
 
 // Organisations, memberships and invitations. Every exported function begins by asserting
 // its policy rule (./policy.ts) and names it, with its access-log action, in one line.

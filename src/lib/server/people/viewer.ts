@@ -1,5 +1,6 @@
 import type { Actor, MemberRole, OrganisationKind } from '../actor';
-import { activeMemberships, areasOf, type Area } from './policy';
+import { areasOf, type Area } from './policy';
+import { activeMemberships } from '../scope';
 
 // What the shell shows a signed-in person: her name, where she acts, and the areas her roles
 // open (the navigation mirrors the server's rules; it never replaces them).

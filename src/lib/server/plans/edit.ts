@@ -8,7 +8,7 @@ import { db, type Executor } from '../db';
 import { planClients, planOverrides, plans } from '../db/schema';
 import { ProblemError } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
-import { instructorStudioIds, mayUsePlans, studioForNew } from './policy';
+import { mayUsePlans, studioForNew } from './policy';
 import { type ClientRow, type PlanRow, refuseUse } from './shared';
 import {
 	logPerClient,
@@ -18,6 +18,7 @@ import {
 	validateContent,
 	writeRoster
 } from './content';
+import { instructorStudioIds } from '../scope';
 
 // ── Plans: create, list, read, change ────────────────────────────────────────────────────
 

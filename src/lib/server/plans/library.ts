@@ -9,8 +9,9 @@ import { db, type Executor } from '../db';
 import { studioExercises } from '../db/schema';
 import { fieldProblem } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
-import { instructorStudioIds, mayUsePlans, studioForNew } from './policy';
+import { mayUsePlans, studioForNew } from './policy';
 import { refuseUse } from './shared';
+import { instructorStudioIds } from '../scope';
 
 // ── Library ─────────────────────────────────────────────────────────────────────────────
 

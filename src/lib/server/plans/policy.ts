@@ -1,11 +1,9 @@
 import type { Actor } from '../actor';
-import { instructorStudioIds } from '../clients/policy';
+import { instructorStudioIds } from '../scope';
 
 // Who may do what with exercises and session plans. Plans and a studio's own exercises belong
 // to the studio: any of its instructors may open, edit, check and mark them ready. Nobody else
 // learns that they exist (404).
-
-export { instructorStudioIds };
 
 /** Plans and the exercise library: instructors of at least one studio. */
 export function mayUsePlans(actor: Actor): boolean {

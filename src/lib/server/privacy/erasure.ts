@@ -1,14 +1,12 @@
 import { and, asc, count, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { daysUntilDue, erasureDueOn, isErasureOverdue } from '../../domain/erasure';
-import type { Actor } from '../actor';
 import { recordAccess, recordAccesses } from '../audit';
 import { mayReadOwnRecord } from '../clients/policy';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
-import {
-	clients,
+import { clients,
 	consents,
 	documents,
 	erasureRequests,
@@ -24,6 +22,7 @@ import {
 import { notFound, ProblemError } from '../http/problem';
 import { queueNotification } from '../mail/outbox';
 import { eraseClient } from './erase';
+import { studioAdminIds } from '../scope';
 
 // A client's request that her studio erase her data, and the studio admin's answer
 // (GDPR Art. 17; answered within a month, Art. 12(3)). The client asks from her Privacy page;
@@ -55,17 +54,6 @@ export interface ErasurePreview {
 	erased: Array<{ what: string; count: number }>;
 	keptByClinics: Array<{ clinic: string; referrals: number; documents: number }>;
 	signInErased: boolean;
-}
-
-/** The studios where she is an admin. */
-export function studioAdminIds(actor: Actor): string[] {
-	return [
-		...new Set(
-			actor.memberships
-				.filter((m) => m.kind === 'studio' && m.role === 'admin')
-				.map((m) => m.organisationId)
-		)
-	];
 }
 
 const decider = alias(users, 'decider');

@@ -18,7 +18,7 @@ import {
 } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
-import { instructorStudioIds, transitionRoles } from './policy';
+import { transitionRoles } from './policy';
 import { snapshotClient, snapshotScreenings } from './snapshot';
 import { heldClientId, visibleReferral } from './shared';
 import {
@@ -30,6 +30,7 @@ import {
 	studioOrg,
 	toListItem
 } from './lists';
+import { instructorStudioIds } from '../scope';
 
 // ── One referral ───────────────────────────────────────────────────────────────────────
 

@@ -6,7 +6,7 @@ import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import { clients, organisations, referralEvents, referrals, users } from '../db/schema';
 import { notFound } from '../http/problem';
-import { instructorStudioIds } from './policy';
+import { instructorStudioIds } from '../scope';
 
 // One client's referrals, for the two people who follow them from her side: the instructors of
 // her studio (on her record) and the client herself (in plain words). Drafts are the studio's

@@ -17,8 +17,9 @@ import {
 } from '../db/schema';
 import { fieldProblem, ProblemError } from '../http/problem';
 import { decodeCursor, toPage, type Page } from '../http/schemas';
-import { instructorStudioIds, mayListReferrals, physioClinicIds } from './policy';
+import { mayListReferrals } from './policy';
 import type { ReferralRow } from './shared';
+import { instructorStudioIds, physioClinicIds } from '../scope';
 
 // ── Lists ──────────────────────────────────────────────────────────────────────────────
 

@@ -1,7 +1,7 @@
 import type { ReferralState, TransitionActor } from '../../domain/referral';
 import { actorsInto, findTransition, type Transition } from '../../domain/referral';
 import type { Actor } from '../actor';
-import { instructorStudioIds } from '../clients/policy';
+import { instructorStudioIds, physioClinicIds } from '../scope';
 
 // Who may see and move a referral. Pure functions of the actor and the referral; the service
 // asserts one at the start of every exported function. A clinic never sees drafts; a
@@ -18,19 +18,6 @@ export interface ReferralScope {
 
 /** The studio still holds this referral (it has not erased the client's record). */
 const studioHolds = (referral: ReferralScope) => !referral.studioErasedAt;
-
-/** The clinics where she is a physiotherapist. */
-export function physioClinicIds(actor: Actor): string[] {
-	return [
-		...new Set(
-			actor.memberships
-				.filter((m) => m.kind === 'clinic' && m.role === 'physiotherapist')
-				.map((m) => m.organisationId)
-		)
-	];
-}
-
-export { instructorStudioIds };
 
 /**
  * Listing clinics and their physiotherapists: anyone signed in (an instructor choosing where

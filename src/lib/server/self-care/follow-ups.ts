@@ -12,12 +12,12 @@ import {
 	selfCheckSharing
 } from '../db/schema';
 import { notFound } from '../http/problem';
-import { instructorStudioIds } from '../clients/policy';
 import { libraryFor } from '../plans/service';
 import { mayFollowUp, mayManageHomePractice, mayReadSelfChecks } from './policy';
 import { DAY_MS, isShared, limitsFor, todayUtc } from './shared';
 import { toView, type SelfCheckView } from './self-checks';
 import { cardsOf, type PracticeCard, type PracticeSessionView } from './home-practice';
+import { instructorStudioIds } from '../scope';
 
 export interface ClientSelfCare {
 	shared: boolean;

@@ -1,5 +1,5 @@
 import type { Actor } from '../actor';
-import { instructorStudioIds } from '../clients/policy';
+import { instructorStudioIds } from '../scope';
 
 // Who may do what with self-checks and home practice. Her self-checks are hers: the studio's
 // instructors see them only while she shares them with that studio (else 404, never 403).

@@ -6,8 +6,9 @@ import { listFailedMailFor, resendFailedMail } from '$lib/server/mail/service';
 import { failFromProblem } from '$lib/server/http/form';
 import { summariseActivity } from '$lib/server/audit/review/service';
 import { summariseArea } from '$lib/server/people/service';
-import { erasureRequestCounts, studioAdminIds } from '$lib/server/privacy/erasure';
+import { erasureRequestCounts } from '$lib/server/privacy/erasure';
 import type { Actions, PageServerLoad } from './$types';
+import { studioAdminIds } from '$lib/server/scope';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);

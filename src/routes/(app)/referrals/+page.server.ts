@@ -1,7 +1,7 @@
 import { requirePageCaller } from '$lib/server/context';
 import { notHere } from '$lib/server/referrals/not-here';
-import { instructorStudioIds, physioClinicIds } from '$lib/server/referrals/policy';
 import type { PageServerLoad } from './$types';
+import { instructorStudioIds, physioClinicIds } from '$lib/server/scope';
 
 // The list itself is fetched by the browser from /api/v1/referrals (and refreshed there);
 // the server only says which parts of the page this person has.

@@ -1,6 +1,6 @@
 import type { Actor } from '../../actor';
-import { activeMemberships } from '../../people/policy';
 import type { ReviewScope } from './scope';
+import { activeMemberships } from '../../scope';
 
 // Who may review the access log: an admin of the organisation she is acting in, over that
 // organisation's scope (./scope.ts). Instructors, physiotherapists and clients may not (a

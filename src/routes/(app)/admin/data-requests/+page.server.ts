@@ -1,8 +1,9 @@
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
-import { listErasureRequests, studioAdminIds } from '$lib/server/privacy/erasure';
+import { listErasureRequests } from '$lib/server/privacy/erasure';
 import { notHere } from '$lib/server/referrals/not-here';
 import type { PageServerLoad } from './$types';
+import { studioAdminIds } from '$lib/server/scope';
 
 // The studio admin's data requests: clients' requests to erase their data, open ones first
 // (soonest due first, overdue ones flagged), then the answered ones.
