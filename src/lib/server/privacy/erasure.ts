@@ -6,7 +6,8 @@ import { mayReadOwnRecord } from '../clients/policy';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
-import { clients,
+import {
+	clients,
 	consents,
 	documents,
 	erasureRequests,
