@@ -1,7 +1,8 @@
 -- The benchmark's scale dataset (`npm run bench`), made with generate_series on top of the
 -- demo scenario: a large multi-site practice — 50 studios, 20 clinics, 10,000 clients (200 a
 -- studio), 200,000 screenings (20 a client), 20,000 referrals (2 a client; 1,000 a clinic)
--- and 1,000,000 access-log rows over the past year. Every value is invented. Screenings copy
+-- and the subject keys that the 1,000,000 access-log rows of scale-log.sql name (the log is
+-- filled by the app's role, the only one allowed to). Every value is invented. Screenings copy
 -- the shape of a demo screening, so the app reads them like any other.
 -- Bench people: an instructor and an admin of the first bench studio, a physiotherapist of
 -- the first bench clinic (sessions are made by the bench itself).

@@ -13,8 +13,8 @@ import {
 } from '../db/schema';
 import { notFound } from '../http/problem';
 import { libraryFor } from '../plans/service';
-import { mayFollowUp, mayManageHomePractice, mayReadSelfChecks } from './policy';
-import { DAY_MS, isShared, limitsFor, todayUtc } from './shared';
+import { mayFollowUp, mayReadSelfChecks } from './policy';
+import { DAY_MS, isShared, limitsFor, todayUtc, managedClient } from './shared';
 import { toView, type SelfCheckView } from './self-checks';
 import { cardsOf, type PracticeCard, type PracticeSessionView } from './home-practice';
 import { instructorStudioIds } from '../scope';
@@ -38,16 +38,7 @@ export interface ClientSelfCare {
  * needing a swap.
  */
 export async function clientSelfCare(caller: Caller, clientId: string): Promise<ClientSelfCare> {
-	const [client] = await db().select().from(clients).where(eq(clients.id, clientId));
-	if (!client || !mayManageHomePractice(caller.actor, client)) {
-		return refuse(
-			caller,
-			'home_practice.read',
-			notFound(),
-			{ type: 'client', id: clientId },
-			client?.id
-		);
-	}
+	const client = await managedClient(caller, clientId, 'home_practice.read');
 	return db().transaction(async (tx) => {
 		const shared = await isShared(tx, client);
 		const readChecks = mayReadSelfChecks(caller.actor, client, shared);

@@ -5,7 +5,7 @@ import { EXERCISE_LIBRARY } from '../../domain/exercises/library';
 import { checkPlan, type PlanCell } from '../../domain/plan-check';
 import type { HomePracticeInput, PracticeSessionInput } from '../../self-care/schemas';
 import { recordAccess } from '../audit';
-import { refuse, type Caller } from '../context';
+import { type Caller } from '../context';
 import { db } from '../db';
 import {
 	clients,
@@ -14,10 +14,9 @@ import {
 	homePracticeSessions,
 	type HomePracticeItem
 } from '../db/schema';
-import { notFound, ProblemError } from '../http/problem';
+import { ProblemError } from '../http/problem';
 import { libraryFor } from '../plans/service';
-import { mayManageHomePractice } from './policy';
-import { limitsFor, ownClient } from './shared';
+import { limitsFor, ownClient, managedClient } from './shared';
 
 // ── Home practice ──────────────────────────────────────────────────────────────────────
 
@@ -74,16 +73,7 @@ export async function setHomePractice(
 	clientId: string,
 	input: HomePracticeInput
 ): Promise<{ items: PracticeCard[] }> {
-	const [client] = await db().select().from(clients).where(eq(clients.id, clientId));
-	if (!client || !mayManageHomePractice(caller.actor, client)) {
-		return refuse(
-			caller,
-			'home_practice.set',
-			notFound(),
-			{ type: 'client', id: clientId },
-			client?.id
-		);
-	}
+	const client = await managedClient(caller, clientId, 'home_practice.set');
 	return db().transaction(async (tx) => {
 		const library = await libraryFor(tx, [client.organisationId]);
 		const known = new Set(library.map((e) => e.id));

@@ -5,7 +5,7 @@ import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
 import { clients, selfCheckSharing } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
-import { mayUseOwnSelfCare } from './policy';
+import { mayManageHomePractice, mayUseOwnSelfCare } from './policy';
 
 // What the self-care modules (self-checks, home practice, follow-ups, reminders) share: days,
 // her own client record behind a policy check, whether she shares her checks with a studio,
@@ -63,4 +63,17 @@ export async function limitsFor(
 ): Promise<EffectiveLimits> {
 	const limits = await loadEffectiveLimits(tx, [client.id], todayUtc(), { selfReports });
 	return limits.get(client.id)!;
+}
+
+/** A client whose home practice the caller may manage (her studio's instructors); else a logged 404. */
+export async function managedClient(
+	caller: Caller,
+	clientId: string,
+	action: 'home_practice.read' | 'home_practice.set'
+): Promise<ClientRow> {
+	const [client] = await db().select().from(clients).where(eq(clients.id, clientId));
+	if (!client || !mayManageHomePractice(caller.actor, client)) {
+		return refuse(caller, action, notFound(), { type: 'client', id: clientId }, client?.id);
+	}
+	return client;
 }
