@@ -177,13 +177,14 @@ try {
 			logFilter: true
 		}
 	];
+	// The export first, on a freshly started app: its peak RSS is then the export's own.
+	log('exporting the whole log as CSV …');
+	const exported = await exportWholeLog(admin, app.pid);
 	const results = [];
 	for (const target of targets) {
 		log(`measuring ${target.name} …`);
 		results.push({ ...target, ...(await measure(target)) });
 	}
-	log('exporting the whole log as CSV …');
-	const exported = await exportWholeLog(admin, app.pid);
 	const pages = pageJavaScript();
 	log(`raw: ${JSON.stringify({ results, exported, chain, bootSeconds })}`);
 	report({ results, exported, chain, pages, bootSeconds, counts });
@@ -300,7 +301,8 @@ async function exportWholeLog(cookie, pid) {
 		const status = readFileSync(`/proc/${pid}/status`, 'utf8');
 		return Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024;
 	};
-	let peak = rss();
+	const before = rss();
+	let peak = before;
 	const sampler = setInterval(() => {
 		peak = Math.max(peak, rss());
 	}, 20);
@@ -316,7 +318,7 @@ async function exportWholeLog(cookie, pid) {
 	const seconds = (Date.now() - started) / 1000;
 	clearInterval(sampler);
 	peak = Math.max(peak, rss());
-	return { status: response.status, rows, bytes, seconds, peakRssMb: peak };
+	return { status: response.status, rows, bytes, seconds, peakRssMb: peak, startRssMb: before };
 }
 
 /**
@@ -412,7 +414,7 @@ function report({ results, exported, chain, pages, bootSeconds, counts }) {
 	console.log(
 		`\nCSV export of the whole log: ${exported.rows} rows in ${fmt(exported.seconds, 1)} s ` +
 			`(${fmt(exported.rows / exported.seconds)} rows/s, ${fmt(exported.bytes / 1048576, 1)} MB), ` +
-			`peak RSS ${fmt(exported.peakRssMb)} MB — target < ${TARGET.exportPeakRssMb} MB: ${verdict(exportOk)}`
+			`peak RSS ${fmt(exported.peakRssMb)} MB (${fmt(exported.startRssMb)} MB before it) — target < ${TARGET.exportPeakRssMb} MB: ${verdict(exportOk)}`
 	);
 	console.log(
 		`Seal chain: ${chain.sealed} rows sealed in ${fmt(chain.sealMs / 1000, 1)} s ` +

@@ -61,11 +61,13 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
 	'self_check.recorded': 'Recorded a self-check',
 	'self_check.read': 'Read self-checks',
 	'self_check.sharing_changed': 'Changed self-check sharing',
+	'self_check.followed_up': 'Marked a self-check followed up',
 	'home_practice.set': 'Set a home practice',
 	'home_practice.read': 'Read a home practice',
 	'home_practice.session_recorded': 'Marked a home practice done',
 	'home_practice.reminder_changed': 'Changed practice reminders',
 	'home_practice.reminded': 'Sent a practice reminder',
+	'home_practice.followed_up': 'Marked a practice session followed up',
 	'access.denied': 'Was refused access'
 };
 

@@ -101,3 +101,9 @@ export type PracticeSessionInput = z.infer<typeof practiceSessionSchema>;
 export const practiceReminderSchema = z.object({
 	on: z.boolean({ error: 'must be true or false' })
 });
+
+/** An instructor marks a dashboard follow-up done: which kind of item, and its id. */
+export const followUpDoneSchema = z.strictObject({
+	kind: z.enum(['self_check', 'felt_wrong'], { error: 'must be self_check or felt_wrong' }),
+	id: z.uuid('must be the id of a self-check or a practice session')
+});

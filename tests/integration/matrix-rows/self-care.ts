@@ -8,6 +8,8 @@ const LINDEN_INSTRUCTORS: Person[] = [
 	'instructor2@studio.example'
 ];
 const CLIENTS: Person[] = ['client@client.example', 'client2@client.example'];
+// Every studio instructor may follow up her own studio's items (Harbour's has none here).
+const INSTRUCTORS: Person[] = [...LINDEN_INSTRUCTORS, 'instructor@otherstudio.example'];
 const HANA = { id: '<client:Hana Lindqvist>' };
 
 export const SELF_CARE_ROWS: Row[] = [
@@ -19,6 +21,14 @@ export const SELF_CARE_ROWS: Row[] = [
 		call: 'POST ?/homePractice',
 		sample: HANA,
 		expect: only(LINDEN_INSTRUCTORS, 400)
+	},
+	// "Followed up" on the instructor dashboard: an empty form is 400 for instructors; the
+	// API refuses anyone else (403) before it reads the body, and an empty body is 422.
+	{ route: '/(app)/instructor', call: 'POST ?/followedUp', expect: only(INSTRUCTORS, 400) },
+	{
+		route: '/api/v1/follow-ups',
+		call: 'POST',
+		expect: only(INSTRUCTORS, 422, { others: 403, anonymous: 401 })
 	},
 	// Without sign-in by design: the link in the reminder mail. A bad link is a 400.
 	{ route: '/reminders/unsubscribe', call: 'GET', expect: everyone(200) },

@@ -59,11 +59,13 @@ export const AUDIT_ACTIONS = [
 	'self_check.recorded',
 	'self_check.read',
 	'self_check.sharing_changed',
+	'self_check.followed_up',
 	'home_practice.set',
 	'home_practice.read',
 	'home_practice.session_recorded',
 	'home_practice.reminder_changed',
 	'home_practice.reminded',
+	'home_practice.followed_up',
 	'access.denied'
 ] as const;
 

@@ -1,7 +1,7 @@
-import { and, desc, eq, gte, inArray } from 'drizzle-orm';
+import { and, desc, eq, gte, inArray, isNull, sql } from 'drizzle-orm';
 import { ADVICE_RANK, type AdviceLevel } from '../../domain';
 import { checkPlan } from '../../domain/plan-check';
-import { recordAccesses } from '../audit';
+import { recordAccess, recordAccesses } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import {
@@ -11,7 +11,7 @@ import {
 	selfChecks,
 	selfCheckSharing
 } from '../db/schema';
-import { notFound } from '../http/problem';
+import { notFound, ProblemError } from '../http/problem';
 import { libraryFor } from '../plans/service';
 import { mayFollowUp, mayReadSelfChecks } from './policy';
 import { DAY_MS, isShared, limitsFor, todayUtc, managedClient } from './shared';
@@ -112,6 +112,8 @@ export async function clientSelfCare(caller: Caller, clientId: string): Promise<
 }
 
 export interface FollowUp {
+	/** The self-check or practice session it is about. */
+	id: string;
 	clientId: string;
 	clientName: string;
 	kind: 'self_check' | 'felt_wrong';
@@ -151,6 +153,7 @@ export async function listFollowUps(caller: Caller): Promise<FollowUp[]> {
 				and(
 					inArray(clients.organisationId, studios),
 					gte(selfChecks.takenAt, since),
+					isNull(selfChecks.followedUpAt),
 					inArray(selfChecks.adviceLevel, [
 						'emergency',
 						'same_day',
@@ -174,7 +177,8 @@ export async function listFollowUps(caller: Caller): Promise<FollowUp[]> {
 				and(
 					inArray(clients.organisationId, studios),
 					gte(homePracticeSessions.doneAt, since),
-					eq(homePracticeSessions.feltOk, false)
+					eq(homePracticeSessions.feltOk, false),
+					isNull(homePracticeSessions.followedUpAt)
 				)
 			)
 			.orderBy(desc(homePracticeSessions.doneAt))
@@ -195,6 +199,7 @@ export async function listFollowUps(caller: Caller): Promise<FollowUp[]> {
 		]);
 		const items: FollowUp[] = [
 			...checks.map((c) => ({
+				id: c.id,
 				clientId: c.clientId,
 				clientName: c.name,
 				kind: 'self_check' as const,
@@ -202,6 +207,7 @@ export async function listFollowUps(caller: Caller): Promise<FollowUp[]> {
 				level: c.level
 			})),
 			...wrong.map((w) => ({
+				id: w.id,
 				clientId: w.clientId,
 				clientName: w.name,
 				kind: 'felt_wrong' as const,
@@ -214,5 +220,74 @@ export async function listFollowUps(caller: Caller): Promise<FollowUp[]> {
 				(a.level ? ADVICE_RANK[a.level] : 9) - (b.level ? ADVICE_RANK[b.level] : 9) ||
 				b.at.localeCompare(a.at)
 		);
+	});
+}
+
+/** Follow-ups belong to the instructors of a studio; anyone else is refused (403, logged). */
+export async function assertMayFollowUp(
+	caller: Caller,
+	action: 'self_check.followed_up' | 'home_practice.followed_up' = 'self_check.followed_up',
+	target?: { type: string; id: string }
+): Promise<void> {
+	if (mayFollowUp(caller.actor)) return;
+	await refuse(
+		caller,
+		action,
+		new ProblemError('forbidden', {
+			detail: 'Follow-ups are for the instructors of the client’s studio.'
+		}),
+		target
+	);
+}
+
+/**
+ * Policy: mayFollowUp, on an item the dashboard would show her (a shared self-check or a
+ * practice that felt wrong, of a client of her studios); anything else is a logged 404.
+ * Audit: self_check.followed_up / home_practice.followed_up. Marking it again changes nothing.
+ */
+export async function markFollowedUp(
+	caller: Caller,
+	item: { kind: FollowUp['kind']; id: string }
+): Promise<{ id: string; followedUpAt: string }> {
+	const action =
+		item.kind === 'self_check' ? 'self_check.followed_up' : 'home_practice.followed_up';
+	const target = {
+		type: item.kind === 'self_check' ? 'self_check' : 'home_practice_session',
+		id: item.id
+	};
+	await assertMayFollowUp(caller, action, target);
+	const studios = instructorStudioIds(caller.actor);
+	const table = item.kind === 'self_check' ? selfChecks : homePracticeSessions;
+	const [found] = await db()
+		.select({
+			clientId: table.clientId,
+			organisationId: clients.organisationId,
+			followedUpAt: table.followedUpAt,
+			shared: sql<boolean>`exists (select 1 from self_check_sharing s
+				where s.client_id = ${clients.id} and s.organisation_id = ${clients.organisationId}
+				and s.shared)`
+		})
+		.from(table)
+		.innerJoin(clients, eq(clients.id, table.clientId))
+		.where(eq(table.id, item.id));
+	const visible =
+		found && studios.includes(found.organisationId) && (item.kind === 'felt_wrong' || found.shared);
+	if (!visible) return refuse(caller, action, notFound(), target, found?.clientId);
+	return db().transaction(async (tx) => {
+		const [row] = await tx
+			.update(table)
+			.set({
+				followedUpAt: sql`coalesce(${table.followedUpAt}, now())`,
+				followedUpBy: sql`coalesce(${table.followedUpBy}, ${caller.actor.userId}::uuid)`
+			})
+			.where(eq(table.id, item.id))
+			.returning({ followedUpAt: table.followedUpAt });
+		await recordAccess(tx, caller.access, {
+			action,
+			outcome: 'success',
+			target,
+			clientId: found.clientId
+		});
+		return { id: item.id, followedUpAt: row!.followedUpAt!.toISOString() };
 	});
 }

@@ -31,7 +31,9 @@ import {
 	clientSelfCare,
 	getOwnHomePractice,
 	listClientSelfChecks,
+	listFollowUps,
 	listOwnSelfChecks,
+	markFollowedUp,
 	recordPracticeSession,
 	recordSelfCheck,
 	sendPracticeReminders,
@@ -154,6 +156,55 @@ describe('sharing self-checks', () => {
 			.from(accessLog)
 			.where(and(gte(accessLog.at, since), eq(accessLog.targetId, id)));
 		expect(rows.map((r) => r.action).sort()).toEqual(['self_check.read', 'self_check.recorded']);
+	});
+});
+
+describe('dashboard follow-ups', () => {
+	const followUpIds = async (who: Caller, clientId: string) =>
+		(await listFollowUps(who))
+			.filter((f) => f.clientId === clientId)
+			.map((f) => `${f.kind}:${f.id}`)
+			.sort();
+
+	it('a shared check and a practice that felt wrong stay until an instructor marks them followed up', async () => {
+		const gia = await clientPerson();
+		await setSelfCheckSharing(gia.caller, { studioId: studio, share: true });
+		// Sperstad 2016: 2 finger widths → show your instructor
+		const check = await recordSelfCheck(
+			gia.caller,
+			input({ takenAt: new Date().toISOString(), symptoms: [], sites: sites(2) })
+		);
+		await setHomePractice(alice, gia.id, {
+			items: [{ exerciseId: 'heel-slides', reps: '8', note: null }]
+		});
+		const session = await recordPracticeSession(
+			gia.caller,
+			practiceSessionSchema.parse({ doneAt: new Date().toISOString(), feltOk: false })
+		);
+		const both = [`felt_wrong:${session.id}`, `self_check:${check.id}`].sort();
+		expect(await followUpIds(alice, gia.id)).toEqual(both);
+		// Another studio's instructor: 404; the client herself: 403; nothing changes.
+		await expectProblem(markFollowedUp(olga, { kind: 'self_check', id: check.id }), 404);
+		await expectProblem(markFollowedUp(gia.caller, { kind: 'felt_wrong', id: session.id }), 403);
+		expect(await followUpIds(alice, gia.id)).toEqual(both);
+
+		const done = await markFollowedUp(alice, { kind: 'self_check', id: check.id });
+		await markFollowedUp(alice, { kind: 'felt_wrong', id: session.id });
+		expect(await followUpIds(alice, gia.id)).toEqual([]);
+		// Marking again keeps the first time.
+		const again = await markFollowedUp(alice, { kind: 'self_check', id: check.id });
+		expect(again.followedUpAt).toBe(done.followedUpAt);
+	});
+
+	it('a check she does not share is not the studio’s to mark: 404', async () => {
+		const hal = await clientPerson();
+		const check = await recordSelfCheck(
+			hal.caller,
+			input({ takenAt: new Date().toISOString(), symptoms: [], sites: sites(2) })
+		);
+		await expectProblem(markFollowedUp(alice, { kind: 'self_check', id: check.id }), 404);
+		const [row] = await db().select().from(selfChecks).where(eq(selfChecks.id, check.id));
+		expect(row!.followedUpAt).toBeNull();
 	});
 });
 

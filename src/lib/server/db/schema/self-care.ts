@@ -38,7 +38,10 @@ export const selfChecks = pgTable(
 		sites: jsonb('sites').$type<SelfCheckSites>(),
 		woundHealed: boolean('wound_healed'),
 		adviceLevel: text('advice_level').$type<AdviceLevel>().notNull(),
-		createdAt: timestamp('created_at', tz).notNull().defaultNow()
+		createdAt: timestamp('created_at', tz).notNull().defaultNow(),
+		/** When an instructor of her studio marked it followed up (it leaves the dashboard). */
+		followedUpAt: timestamp('followed_up_at', tz),
+		followedUpBy: uuid('followed_up_by').references(() => users.id, { onDelete: 'set null' })
 	},
 	(t) => [index('self_checks_client_taken_idx').on(t.clientId, t.takenAt)]
 );
@@ -94,7 +97,10 @@ export const homePracticeSessions = pgTable(
 		note: text('note'),
 		symptoms: text('symptoms').array().$type<RedFlag[]>().notNull(),
 		adviceLevel: text('advice_level').$type<AdviceLevel>(),
-		createdAt: timestamp('created_at', tz).notNull().defaultNow()
+		createdAt: timestamp('created_at', tz).notNull().defaultNow(),
+		/** When an instructor of her studio marked it followed up (it leaves the dashboard). */
+		followedUpAt: timestamp('followed_up_at', tz),
+		followedUpBy: uuid('followed_up_by').references(() => users.id, { onDelete: 'set null' })
 	},
 	(t) => [
 		index('home_practice_sessions_client_done_idx').on(t.clientId, t.doneAt),
