@@ -8,7 +8,8 @@ import type { AccessEventItem } from './service';
 export function fhirAction(action: string): 'C' | 'R' | 'U' | 'D' | 'E' {
 	if (/\.(read|listed|downloaded|exported|access_read)$/.test(action)) return 'R';
 	if (/\.(created|recorded|given|sent|uploaded|requested|set)$/.test(action)) return 'C';
-	if (/\.(updated|transitioned|role_changed|overridden|ready|declined|followed_up)$/.test(action)) return 'U';
+	if (/\.(updated|transitioned|role_changed|overridden|ready|declined|followed_up)$/.test(action))
+		return 'U';
 	if (/\.(withdrawn|deactivated|revoked|erased)$/.test(action)) return 'D';
 	return 'E';
 }
