@@ -14,7 +14,7 @@ import {
 	makeMember,
 	makeOrg,
 	statusOf
-} from '../../src/lib/server/referrals/testing/fixtures';
+} from '../support/referral-fixtures';
 
 // The dashboards' numbers: each agrees with the list it links to, and counting leaves no
 // access-log row (a number names no client; the list logs each one it shows).

@@ -8,8 +8,11 @@ import { accessLog, subjectKeys } from '../db/schema';
 import { recordAccess, recordAccesses, recordRefusal, type AccessContext } from './writer';
 import type { AuditAction } from './actions';
 import { sealPending } from './sealer';
-import { createTestClient } from './testing/client';
-import { createScratchDatabase, type ScratchDatabase } from './testing/scratch-database';
+import { createTestClient } from '../../../../tests/support/audit-client';
+import {
+	createScratchDatabase,
+	type ScratchDatabase
+} from '../../../../tests/support/scratch-database';
 import { verifyChain } from './verify';
 
 // The writer against the real database (shared test database, app role), and the

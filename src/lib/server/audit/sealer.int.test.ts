@@ -6,8 +6,11 @@ import { createDatabase, type Database } from '../db';
 import { AUDIT_ACTIONS } from './actions';
 import { GENESIS_HASH } from './chain';
 import { sealPending } from './sealer';
-import { createTestClient } from './testing/client';
-import { createScratchDatabase, type ScratchDatabase } from './testing/scratch-database';
+import { createTestClient } from '../../../../tests/support/audit-client';
+import {
+	createScratchDatabase,
+	type ScratchDatabase
+} from '../../../../tests/support/scratch-database';
 import { anchorHead, listAnchors, memoryAnchorStore } from './anchors';
 import { s3AnchorStore } from '../storage/anchors';
 import { verifyAnchored, verifyChain } from './verify';

@@ -20,7 +20,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from '../referrals/testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 import { readAssessment, recordAssessment } from './assessment';
 import { readClearance, setClearance, todayUtc } from './clearance';
 import { listReviewRequests, requestClearanceReview } from '../plans/service';

@@ -43,7 +43,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from '../referrals/testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 import { getObject, listObjects, objectExists, putObject, useS3Endpoint } from '../storage';
 import {
 	documentKey,

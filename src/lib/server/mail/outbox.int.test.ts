@@ -2,7 +2,10 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { afterEach, describe, expect, it } from 'vitest';
 import { uniqueAddress } from '../../../../tests/support/services';
-import { createScratchDatabase, type ScratchDatabase } from '../audit/testing/scratch-database';
+import {
+	createScratchDatabase,
+	type ScratchDatabase
+} from '../../../../tests/support/scratch-database';
 import { createDatabase, type Database } from '../db';
 import { queueMail, queueNotification } from './outbox';
 import { createSmtpSender, type SendMail } from './transport';

@@ -10,7 +10,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from '../referrals/testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 import { listOwnAccess } from './access';
 import { exportOwnData, ownDataBundle } from './export';
 import { Fhir } from 'fhir';

@@ -25,7 +25,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from '../referrals/testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 import { getReferral, listReferrals, openReferral, transitionReferral } from '../referrals/service';
 import { objectExists } from '../storage';
 import { ERASURE_RULES } from './erasure-rules';

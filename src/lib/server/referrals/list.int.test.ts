@@ -11,7 +11,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from './testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 
 // The inbox list: filters, sorting, search, pagination, and how its reads are logged. Each
 // test uses a clinic of its own, so the lists hold exactly what the test put there.

@@ -35,7 +35,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from './testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 
 // Consent gating, withdrawal and the isolation of clinics, against the real database.
 // Rules checked are Seamwell's own (DESIGN.md "Consent to share"), following GDPR Art. 7(3)

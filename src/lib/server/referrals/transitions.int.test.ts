@@ -16,7 +16,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from './testing/fixtures';
+} from '../../../../tests/support/referral-fixtures';
 
 // The whole transition table against the real database: every state × every target × every
 // kind of caller. The expected answers are written out here by hand from the table

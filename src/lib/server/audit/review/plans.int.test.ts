@@ -1,6 +1,9 @@
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createScratchDatabase, type ScratchDatabase } from '../testing/scratch-database';
+import {
+	createScratchDatabase,
+	type ScratchDatabase
+} from '../../../../../tests/support/scratch-database';
 import { reviewQuery } from './filters';
 import { eventsQuery } from './service';
 

@@ -12,7 +12,7 @@ import {
 	type ClientPerson,
 	type Org,
 	type Person
-} from '../../referrals/testing/fixtures';
+} from '../../../../../tests/support/referral-fixtures';
 import type { Caller } from '../../context';
 import { recordAccess, type AccessEvent } from '../writer';
 import { reviewQuery, type ReviewQuery } from './filters';

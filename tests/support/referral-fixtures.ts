@@ -1,12 +1,12 @@
 import { randomUUID } from 'node:crypto';
 import { and, desc, eq, gt } from 'drizzle-orm';
-import type { RedFlag } from '../../../domain/red-flags';
-import type { Site, SiteMeasure } from '../../../domain/sites';
-import type { Actor, MemberRole, OrganisationKind } from '../../actor';
-import type { AuditAction } from '../../audit';
-import { buildScreeningRecord } from '../../clients/screening-record';
-import type { Caller } from '../../context';
-import { db } from '../../db';
+import type { RedFlag } from '../../src/lib/domain/red-flags';
+import type { Site, SiteMeasure } from '../../src/lib/domain/sites';
+import type { Actor, MemberRole, OrganisationKind } from '../../src/lib/server/actor';
+import type { AuditAction } from '../../src/lib/server/audit';
+import { buildScreeningRecord } from '../../src/lib/server/clients/screening-record';
+import type { Caller } from '../../src/lib/server/context';
+import { db } from '../../src/lib/server/db';
 import {
 	accessLog,
 	clients,
@@ -19,9 +19,9 @@ import {
 	referrals,
 	screenings,
 	users
-} from '../../db/schema';
-import type { ReferralState } from '../../../domain/referral';
-import type { ShareScope } from '../../../domain/consent';
+} from '../../src/lib/server/db/schema';
+import type { ReferralState } from '../../src/lib/domain/referral';
+import type { ShareScope } from '../../src/lib/domain/consent';
 
 // Rows for integration tests, written straight to the database (each test makes its own,
 // with unique names, so files never collide), and Callers built the way hooks build them.

@@ -2,9 +2,9 @@
 // migrated database per test, so the shared test database stays intact for everything else.
 import { randomBytes } from 'node:crypto';
 import pg from 'pg';
-import { applyMigrations } from '../../../../../scripts/lib/migrate.mjs';
-import { superuser, requireEnv } from '../../../../../tests/support/services';
-import { createDatabase, type Database } from '../../db';
+import { applyMigrations } from '../../scripts/lib/migrate.mjs';
+import { superuser, requireEnv } from './services';
+import { createDatabase, type Database } from '../../src/lib/server/db';
 
 export interface ScratchDatabase {
 	name: string;

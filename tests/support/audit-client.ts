@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import type { Executor } from '../../db';
+import type { Executor } from '../../src/lib/server/db';
 
 /** A minimal client record (invented), so the writer has a real client to key: returns her id. */
 export async function createTestClient(executor: Executor): Promise<string> {
