@@ -39,7 +39,34 @@ export function limitsClient(row: ClientRow): LimitsClient {
 	};
 }
 
-export function limitsScreening(row: ScreeningRow): LimitsScreening {
+/** The screening columns the limits read: no notes, warnings or rules version on this path. */
+const limitsColumns = {
+	id: screenings.id,
+	clientId: screenings.clientId,
+	takenAt: screenings.takenAt,
+	createdAt: screenings.createdAt,
+	stage: screenings.stage,
+	sites: screenings.sites,
+	redFlags: screenings.redFlags,
+	outcome: screenings.outcome,
+	reasons: screenings.reasons,
+	medicalSignResolved: screenings.medicalSignResolved
+};
+
+export function limitsScreening(
+	row: Pick<
+		ScreeningRow,
+		| 'id'
+		| 'takenAt'
+		| 'createdAt'
+		| 'stage'
+		| 'sites'
+		| 'redFlags'
+		| 'outcome'
+		| 'reasons'
+		| 'medicalSignResolved'
+	>
+): LimitsScreening {
 	return {
 		id: row.id,
 		takenAt: row.takenAt,
@@ -123,7 +150,7 @@ export async function loadEffectiveLimits(
 	// One after the other: a transaction is one connection, which runs one query at a time.
 	const records = await tx.select().from(clients).where(inArray(clients.id, ids));
 	const history = await tx
-		.select()
+		.select(limitsColumns)
 		.from(screenings)
 		.where(inArray(screenings.clientId, ids))
 		.orderBy(asc(screenings.takenAt), asc(screenings.id));
