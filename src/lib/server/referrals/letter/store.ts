@@ -1,11 +1,11 @@
 import { eq } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { RED_FLAG_LABELS } from '../../domain/red-flags';
-import type { Executor } from '../db';
-import { consents, organisations, referralSnapshots, referrals, users } from '../db/schema';
-import { renderReferralLetter } from '../documents/letter';
-import { putObject } from '../storage';
-import type { SnapshotClient } from './snapshot';
+import { RED_FLAG_LABELS } from '../../../domain/red-flags';
+import type { Executor } from '../../db';
+import { consents, organisations, referralSnapshots, referrals, users } from '../../db/schema';
+import { renderReferralLetter } from './render';
+import { putObject } from '../../storage';
+import type { SnapshotClient } from '../snapshot';
 
 // The referral letter, made once when a referral is sent, from the copy the clinic received
 // (so the letter and the shared record agree), and kept in object storage. The send's own

@@ -1,15 +1,15 @@
 import { PDFDocument } from 'pdf-lib';
 import { describe, expect, it } from 'vitest';
 import type { Outcome, SiteMeasure } from '$lib/domain';
-import { pdfText } from '../../../../tests/fixtures/pdf';
-import { inspectPdf } from './pdf-check';
+import { pdfText } from '../../../../../tests/fixtures/pdf';
+import { inspectPdf } from '../../documents/pdf-check';
 import {
 	formatLetterDate,
 	LETTER_CAUTION,
-	renderReferralLetter,
 	type LetterScreening,
 	type ReferralLetterInput
-} from './letter';
+} from './page';
+import { renderReferralLetter } from './render';
 
 const words = (text: string) => text.replace(/\s+/g, ' ').trim();
 
