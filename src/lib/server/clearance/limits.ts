@@ -7,6 +7,7 @@ import type {
 	LimitsScreening
 } from '../../domain/movement';
 import type { Executor } from '../db';
+import { recalledLimits, rememberLimits, type SelfReportScope } from './limits-memo';
 import {
 	clearances,
 	clients,
@@ -129,8 +130,9 @@ export async function currentClearances(
 }
 
 /**
- * Effective movement limits for each client, as of `today` (YYYY-MM-DD): three queries, then
- * the pure rules. Clients that do not exist are left out of the map.
+ * Effective movement limits for each client, as of `today` (YYYY-MM-DD): the records, then —
+ * for those not already in the memo under their current limits version — their screenings,
+ * clearances and self-reports, and the pure rules. Clients that do not exist are left out.
  */
 export async function loadEffectiveLimits(
 	tx: Executor,
@@ -141,38 +143,46 @@ export async function loadEffectiveLimits(
 		 * Her self-reported symptoms: `shared` for the studio (only while she shares her
 		 * self-checks with her studio), `all` for her own view, `none` otherwise.
 		 */
-		selfReports?: 'shared' | 'all' | 'none';
+		selfReports?: SelfReportScope;
 	} = {}
 ): Promise<Map<string, EffectiveLimits>> {
 	const ids = [...new Set(clientIds)];
 	const result = new Map<string, EffectiveLimits>();
 	if (ids.length === 0) return result;
+	const scope = options.selfReports ?? 'none';
 	// One after the other: a transaction is one connection, which runs one query at a time.
 	const records = await tx.select().from(clients).where(inArray(clients.id, ids));
+	const missing: ClientRow[] = [];
+	for (const record of records) {
+		const known = recalledLimits(record.id, record.limitsVersion, today, scope);
+		if (known) result.set(record.id, known);
+		else missing.push(record);
+	}
+	if (missing.length === 0) return result;
+	// Read after the versions: what is read is at least as new as the version it is kept under.
+	const missingIds = missing.map((record) => record.id);
 	const history = await tx
 		.select(limitsColumns)
 		.from(screenings)
-		.where(inArray(screenings.clientId, ids))
+		.where(inArray(screenings.clientId, missingIds))
 		.orderBy(asc(screenings.takenAt), asc(screenings.id));
-	const current = await currentClearances(tx, ids);
+	const current = await currentClearances(tx, missingIds);
 	const byClient = new Map<string, LimitsScreening[]>();
 	for (const row of history) {
 		const list = byClient.get(row.clientId) ?? [];
 		list.push(limitsScreening(row));
 		byClient.set(row.clientId, list);
 	}
-	const reports = await selfReportsFor(tx, records, options.selfReports ?? 'none');
-	for (const record of records) {
-		result.set(
-			record.id,
-			effectiveLimits(
-				limitsClient(record),
-				byClient.get(record.id) ?? [],
-				current.get(record.id) ?? null,
-				today,
-				reports.get(record.id) ?? []
-			)
+	const reports = await selfReportsFor(tx, missing, scope);
+	for (const record of missing) {
+		const limits = effectiveLimits(
+			limitsClient(record),
+			byClient.get(record.id) ?? [],
+			current.get(record.id) ?? null,
+			today,
+			reports.get(record.id) ?? []
 		);
+		result.set(record.id, rememberLimits(record.id, record.limitsVersion, today, scope, limits));
 	}
 	return result;
 }

@@ -1,5 +1,7 @@
 import { sql } from 'drizzle-orm';
 import {
+	bigint,
+	pgSequence,
 	boolean,
 	check,
 	date,
@@ -38,6 +40,9 @@ export const screeningOutcome = pgEnum('screening_outcome', ['within_limit', 'mo
  * computed on the day they are needed. The last screening's time and outcome are copied here
  * in the transaction that records it, so the list sorts and filters without a subquery.
  */
+/** Where every client's limits version is drawn from (see `clients.limitsVersion`). */
+export const clientsLimitsVersionSeq = pgSequence('clients_limits_version_seq');
+
 export const clients = pgTable(
 	'clients',
 	{
@@ -69,6 +74,16 @@ export const clients = pgTable(
 		}),
 		lastScreenedAt: timestamp('last_screened_at', tz),
 		lastOutcome: screeningOutcome('last_outcome'),
+		/**
+		 * Raised by triggers (migration 0013) whenever anything her movement limits are computed
+		 * from changes: this row's own columns, her screenings, clearances, self-checks, practice
+		 * sessions or self-check sharing. The limits memo (clearance/limits-memo.ts) keys on it.
+		 * Drawn from one sequence, so a value is never reused, even for a row deleted and made
+		 * again with the same id.
+		 */
+		limitsVersion: bigint('limits_version', { mode: 'number' })
+			.notNull()
+			.default(sql`nextval('clients_limits_version_seq')`),
 		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
 		createdAt: timestamp('created_at', tz).notNull().defaultNow(),
 		updatedAt: timestamp('updated_at', tz).notNull().defaultNow()
