@@ -5,6 +5,7 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import pg from 'pg';
 import { loadEnv, root } from './lib/env.mjs';
+import { isDatabaseUp } from './lib/postgres.mjs';
 import { bringUpDatabase, defaultDataDir } from './lib/stack.mjs';
 import { startFakes } from './lib/fakes.mjs';
 
@@ -14,7 +15,7 @@ if (!existsSync(join(root, '.env'))) {
 }
 const env = loadEnv({ stack: true });
 const dataDir = defaultDataDir(root, env);
-const wasRunning = await isUp(env);
+const wasRunning = await isDatabaseUp(env);
 
 const server = await bringUpDatabase(env, { dataDir, log: () => {} });
 const admin = new pg.Client({ connectionString: env.DATABASE_SUPERUSER_URL });
@@ -45,17 +46,6 @@ process.exit(seeded.status ?? 1);
 async function answers(url) {
 	try {
 		await fetch(url, { signal: AbortSignal.timeout(1000) });
-		return true;
-	} catch {
-		return false;
-	}
-}
-
-async function isUp(e) {
-	const client = new pg.Client({ connectionString: e.DATABASE_SUPERUSER_URL });
-	try {
-		await client.connect();
-		await client.end();
 		return true;
 	} catch {
 		return false;

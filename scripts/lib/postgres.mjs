@@ -193,3 +193,15 @@ const ident = (name) => {
 	return `"${name}"`;
 };
 const literal = (value) => `'${String(value).replaceAll("'", "''")}'`;
+
+/** True when the cluster answers at the env's address (for scripts that leave it as found). */
+export async function isDatabaseUp(env) {
+	const client = new pg.Client({ connectionString: env.DATABASE_SUPERUSER_URL });
+	try {
+		await client.connect();
+		await client.end();
+		return true;
+	} catch {
+		return false;
+	}
+}

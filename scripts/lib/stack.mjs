@@ -13,8 +13,14 @@ export async function bringUpDatabase(env, { dataDir, throwaway = false, log = c
 		throwaway,
 		log
 	});
-	await ensureDatabase(env);
-	await applyMigrations(env);
+	try {
+		await ensureDatabase(env);
+		await applyMigrations(env);
+	} catch (error) {
+		// A migration that fails must not leave a server running on the port for the next run.
+		await server.stop();
+		throw error;
+	}
 	log(`PostgreSQL 127.0.0.1:${env.PGPORT} (data in ${dataDir})`);
 	return server;
 }
