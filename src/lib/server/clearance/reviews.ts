@@ -1,6 +1,6 @@
 import { and, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import type { ReviewItem } from '$lib/clearance/types';
-import { recordAccess, systemContext } from '../audit';
+import { recordAccess, recordAccesses, systemContext } from '../audit';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Database, type Executor } from '../db';
@@ -68,14 +68,16 @@ export async function listClearanceReviews(caller: Caller): Promise<ReviewItem[]
 			)
 			.orderBy(clearances.reviewOn, clients.name)
 			.limit(100);
-		for (const row of rows) {
-			await recordAccess(tx, caller.access, {
-				action: 'clearance.listed',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			rows.map((row) => ({
+				action: 'clearance.listed' as const,
+				outcome: 'success' as const,
 				target: { type: 'clearance', id: row.clearanceId },
 				clientId: row.clientId
-			});
-		}
+			}))
+		);
 		return rows.map((row) => ({
 			clearanceId: row.clearanceId,
 			clientId: row.clientId,

@@ -6,8 +6,8 @@ import type {
 	PlanCheckResult,
 	PlanCheckSnapshot
 } from '$lib/plans/types';
-import { recordAccess } from '../audit';
-import { loadEffectiveLimits } from '../clearance/limits';
+import { recordAccess, recordAccesses } from '../audit';
+import { limitsForRecords } from '../clearance/limits';
 import { type Caller } from '../context';
 import { db, type Executor } from '../db';
 import { planOverrides, plans } from '../db/schema';
@@ -24,23 +24,24 @@ async function runCheck(
 	row: PlanRow
 ): Promise<{ cells: PlanCell[]; roster: ClientRow[]; checkedAt: string }> {
 	const roster = await rosterOf(tx, row.id);
-	const ids = roster.map((c) => c.id);
 	const [limits, library] = await Promise.all([
-		loadEffectiveLimits(tx, ids, todayUtc(), { selfReports: 'shared' }),
+		limitsForRecords(tx, roster, todayUtc(), { selfReports: 'shared' }),
 		libraryFor(tx, [row.organisationId])
 	]);
 	const withLimits: ClientWithLimits[] = roster
 		.filter((c) => limits.has(c.id))
 		.map((c) => ({ clientId: c.id, stage: c.stage, limits: limits.get(c.id)! }));
 	// Reading each client's effective limits is reading her clearance: one row per client.
-	for (const c of withLimits) {
-		await recordAccess(tx, caller.access, {
-			action: 'clearance.read',
-			outcome: 'success',
+	await recordAccesses(
+		tx,
+		caller.access,
+		withLimits.map((c) => ({
+			action: 'clearance.read' as const,
+			outcome: 'success' as const,
 			target: { type: 'plan', id: row.id },
 			clientId: c.clientId
-		});
-	}
+		}))
+	);
 	return {
 		cells: checkPlan({ items: row.items }, withLimits, library),
 		roster,
@@ -179,14 +180,16 @@ export async function markReady(
 				})
 				.returning({ id: planOverrides.id });
 			overrideId = saved!.id;
-			for (const clientId of new Set(covered.map((c) => c.clientId))) {
-				await recordAccess(tx, caller.access, {
-					action: 'plan.overridden',
-					outcome: 'success',
-					target: { type: 'plan_override', id: overrideId },
+			await recordAccesses(
+				tx,
+				caller.access,
+				[...new Set(covered.map((c) => c.clientId))].map((clientId) => ({
+					action: 'plan.overridden' as const,
+					outcome: 'success' as const,
+					target: { type: 'plan_override', id: overrideId! },
 					clientId
-				});
-			}
+				}))
+			);
 		}
 		await tx
 			.update(plans)

@@ -1,7 +1,7 @@
 import { asc, eq, inArray } from 'drizzle-orm';
 import { judgeExercise } from '$lib/domain/plan-check';
 import type { PlanClient, PlanItem } from '$lib/plans/types';
-import { recordAccess, type AuditAction } from '../audit';
+import { recordAccess, recordAccesses, type AuditAction } from '../audit';
 import { loadEffectiveLimits } from '../clearance/limits';
 import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
@@ -162,8 +162,11 @@ export async function logPerClient(
 ) {
 	if (clientIds.length === 0) {
 		await recordAccess(tx, caller.access, { action, outcome: 'success', target });
+		return;
 	}
-	for (const clientId of clientIds) {
-		await recordAccess(tx, caller.access, { action, outcome: 'success', target, clientId });
-	}
+	await recordAccesses(
+		tx,
+		caller.access,
+		clientIds.map((clientId) => ({ action, outcome: 'success' as const, target, clientId }))
+	);
 }

@@ -2,7 +2,7 @@ import { and, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { PlanCreateInput, PlanPatchInput } from '$lib/plans/schemas';
 import type { PlanDetail, PlanItem, PlanSummary } from '$lib/plans/types';
-import { recordAccess } from '../audit';
+import { recordAccesses } from '../audit';
 import { type Caller } from '../context';
 import { db, type Executor } from '../db';
 import { planClients, planOverrides, plans } from '../db/schema';
@@ -80,13 +80,15 @@ export async function listPlans(
 			u: last.plan.updatedAt.toISOString(),
 			id: last.plan.id
 		}));
-		for (const { plan } of page.items) {
-			await recordAccess(tx, caller.access, {
-				action: 'plan.listed',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			page.items.map(({ plan }) => ({
+				action: 'plan.listed' as const,
+				outcome: 'success' as const,
 				target: { type: 'plan', id: plan.id }
-			});
-		}
+			}))
+		);
 		return {
 			items: page.items.map(({ plan, clientCount }) => ({
 				id: plan.id,

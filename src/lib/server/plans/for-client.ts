@@ -1,7 +1,7 @@
 import { and, desc, eq, isNotNull, isNull } from 'drizzle-orm';
 import { checkPlan } from '$lib/domain/plan-check';
 import type { ForYouEntry } from '$lib/plans/types';
-import { recordAccess } from '../audit';
+import { recordAccesses } from '../audit';
 import { loadEffectiveLimits } from '../clearance/limits';
 import { type Caller } from '../context';
 import { db } from '../db';
@@ -41,13 +41,17 @@ export async function plansForMe(caller: Caller): Promise<ForYouEntry[]> {
 		if (!mine) return [];
 		const names = new Map(library.map((e) => [e.id, e.name]));
 		const entries: ForYouEntry[] = [];
-		for (const { plan } of rows) {
-			await recordAccess(tx, caller.access, {
-				action: 'plan.read',
-				outcome: 'success',
+		await recordAccesses(
+			tx,
+			caller.access,
+			rows.map(({ plan }) => ({
+				action: 'plan.read' as const,
+				outcome: 'success' as const,
 				target: { type: 'plan', id: plan.id },
 				clientId
-			});
+			}))
+		);
+		for (const { plan } of rows) {
 			const cells = checkPlan(
 				{ items: plan.items },
 				[{ clientId, stage: client.stage, limits: mine }],
