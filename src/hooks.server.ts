@@ -31,7 +31,6 @@ import {
 	accessRole,
 	inspectSignInLink,
 	linkLogId,
-	loadActor,
 	recordSignInEvent,
 	resolveSession,
 	sessionOwner,
@@ -283,12 +282,10 @@ const loadPerson: Handle = async ({ event, resolve }) => {
 	const background = event.request.headers.get('x-seamwell-background') === '1';
 	const session = await resolveSession(token, {
 		extend: !background,
-		access: event.locals.access
+		access: event.locals.access,
+		organisationId: event.cookies.get(ORGANISATION_COOKIE) ?? null
 	});
-	const actor =
-		session.state === 'active'
-			? await loadActor(session.userId, event.cookies.get(ORGANISATION_COOKIE) ?? null)
-			: null;
+	const actor = session.state === 'active' ? session.actor : null;
 	if (!actor || session.state !== 'active') {
 		event.cookies.delete(cookieName, { path: '/' });
 		return resolve(event);

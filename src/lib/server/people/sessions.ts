@@ -28,7 +28,7 @@ export type SessionEnd = 'idle' | 'absolute' | 'inactive';
 export type SessionState =
 	| { state: 'none' }
 	| { state: 'ended'; userId: string; reason: SessionEnd }
-	| { state: 'active'; userId: string; expires: Date; extended: boolean };
+	| { state: 'active'; userId: string; expires: Date; extended: boolean; actor: Actor };
 
 /** Why a session row can no longer be used, or null while it may. */
 export function sessionEnd(
@@ -42,25 +42,29 @@ export function sessionEnd(
 }
 
 /**
- * Reads the session behind a cookie. Ordinary requests slide the idle deadline; background
+ * Reads the session behind a cookie, and the person it belongs to, in one statement: this
+ * runs on every signed-in request. Ordinary requests slide the idle deadline; background
  * requests (`extend: false`) only read, so a page refreshing itself keeps no one signed in.
  * An ended session is deleted and its end recorded in the access log.
  */
 export async function resolveSession(
 	token: string,
-	options: { extend: boolean; access: AccessContext }
+	options: { extend: boolean; access: AccessContext; organisationId?: string | null }
 ): Promise<SessionState> {
-	const [row] = await db()
-		.select({
-			userId: sessions.userId,
-			expires: sessions.expires,
-			createdAt: sessions.createdAt,
-			active: users.active
-		})
-		.from(sessions)
-		.innerJoin(users, eq(users.id, sessions.userId))
-		.where(eq(sessions.sessionToken, token));
-	if (!row) return { state: 'none' };
+	const result = await db().execute<
+		PersonRow & { expires: Date | string; created_at: Date | string }
+	>(sql`
+		select s.expires, s.created_at, ${personColumns}
+		from sessions s join users u on u.id = s.user_id
+		where s.session_token = ${token}`);
+	const found = result.rows[0];
+	if (!found) return { state: 'none' };
+	const row = {
+		userId: found.id,
+		expires: new Date(found.expires),
+		createdAt: new Date(found.created_at),
+		active: found.active
+	};
 	const now = new Date();
 	const ended = sessionEnd(row, now);
 	if (ended) {
@@ -78,16 +82,56 @@ export async function resolveSession(
 		});
 		return { state: 'ended', userId: row.userId, reason: ended };
 	}
+	const actor = actorFrom(found, options.organisationId ?? null);
 	const idleDeadline = new Date(now.getTime() + SESSION_IDLE_SECONDS * 1000);
 	const due = idleDeadline.getTime() - row.expires.getTime() >= SESSION_TOUCH_SECONDS * 1000;
 	if (!options.extend || !due) {
-		return { state: 'active', userId: row.userId, expires: row.expires, extended: false };
+		return { state: 'active', userId: row.userId, expires: row.expires, extended: false, actor };
 	}
 	await db()
 		.update(sessions)
 		.set({ expires: idleDeadline })
 		.where(eq(sessions.sessionToken, token));
-	return { state: 'active', userId: row.userId, expires: idleDeadline, extended: true };
+	return { state: 'active', userId: row.userId, expires: idleDeadline, extended: true, actor };
+}
+
+type PersonRow = {
+	id: string;
+	email: string;
+	name: string | null;
+	active: boolean;
+	client_id: string | null;
+	memberships: Array<{
+		organisationId: string;
+		organisationName: string;
+		kind: OrganisationKind;
+		role: MemberRole;
+	}>;
+};
+
+/** The person, her active memberships and her client record, from `users u`. */
+const personColumns = sql`u.id, u.email, u.name, u.active,
+	(select c.id from clients c where c.user_id = u.id) as client_id,
+	coalesce((
+		select json_agg(json_build_object(
+			'organisationId', m.organisation_id, 'organisationName', o.name,
+			'kind', o.kind, 'role', m.role) order by o.name, m.role)
+		from memberships m join organisations o on o.id = m.organisation_id
+		where m.user_id = u.id and m.active
+	), '[]'::json) as memberships`;
+
+function actorFrom(user: PersonRow, chosenOrganisationId: string | null): Actor {
+	const held: Membership[] = user.memberships;
+	const chosen = held.find((m) => m.organisationId === chosenOrganisationId);
+	return {
+		userId: user.id,
+		email: user.email,
+		name: user.name,
+		memberships: held,
+		// She is a client when a studio's client record names her (clients.user_id).
+		clientId: user.client_id,
+		activeOrganisationId: chosen?.organisationId ?? held[0]?.organisationId ?? null
+	};
 }
 
 /** The signed-in person as routes and services see her, acting in the chosen organisation. */
@@ -95,45 +139,12 @@ export async function loadActor(
 	userId: string,
 	chosenOrganisationId: string | null
 ): Promise<Actor | null> {
-	// One statement for the person, her active memberships and her client record: this runs
-	// on every signed-in request (it used to be three round trips).
-	const result = await db().execute<{
-		id: string;
-		email: string;
-		name: string | null;
-		active: boolean;
-		client_id: string | null;
-		memberships: Array<{
-			organisationId: string;
-			organisationName: string;
-			kind: OrganisationKind;
-			role: MemberRole;
-		}>;
-	}>(sql`
-		select u.id, u.email, u.name, u.active,
-			(select c.id from clients c where c.user_id = u.id) as client_id,
-			coalesce((
-				select json_agg(json_build_object(
-					'organisationId', m.organisation_id, 'organisationName', o.name,
-					'kind', o.kind, 'role', m.role) order by o.name, m.role)
-				from memberships m join organisations o on o.id = m.organisation_id
-				where m.user_id = u.id and m.active
-			), '[]'::json) as memberships
-		from users u where u.id = ${userId}`);
+	const result = await db().execute<PersonRow>(
+		sql`select ${personColumns} from users u where u.id = ${userId}`
+	);
 	const user = result.rows[0];
 	if (!user || !user.active) return null;
-	const held: Membership[] = user.memberships;
-	const chosen = held.find((m) => m.organisationId === chosenOrganisationId);
-	const client = user.client_id ? { id: user.client_id } : null;
-	return {
-		userId: user.id,
-		email: user.email,
-		name: user.name,
-		memberships: held,
-		// She is a client when a studio's client record names her (clients.user_id).
-		clientId: client?.id ?? null,
-		activeOrganisationId: chosen?.organisationId ?? held[0]?.organisationId ?? null
-	};
+	return actorFrom(user, chosenOrganisationId);
 }
 
 /** The role string for the access log: every role she holds where she acts (e.g. admin+instructor). */
