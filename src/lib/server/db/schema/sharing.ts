@@ -146,6 +146,17 @@ export const referrals = pgTable(
 	(t) => [
 		index('referrals_studio_idx').on(t.studioId, t.createdAt),
 		index('referrals_clinic_idx').on(t.clinicId, t.sentAt),
+		// The lists' order (newest first): a page of 25 is read from the index, not sorted.
+		index('referrals_clinic_order_idx').on(
+			t.clinicId,
+			sql`coalesce(${t.sentAt}, ${t.createdAt}) desc`,
+			sql`${t.id} desc`
+		),
+		index('referrals_studio_order_idx').on(
+			t.studioId,
+			sql`coalesce(${t.sentAt}, ${t.createdAt}) desc`,
+			sql`${t.id} desc`
+		),
 		index('referrals_client_idx').on(t.clientId),
 		// Past a draft it has been sent, except a draft withdrawn before sending.
 		check(

@@ -1,0 +1,2 @@
+CREATE INDEX "referrals_clinic_order_idx" ON "referrals" USING btree ("clinic_id",coalesce("sent_at", "created_at") desc,"id" desc);--> statement-breakpoint
+CREATE INDEX "referrals_studio_order_idx" ON "referrals" USING btree ("studio_id",coalesce("sent_at", "created_at") desc,"id" desc);
