@@ -147,11 +147,23 @@ export async function loadEffectiveLimits(
 	} = {}
 ): Promise<Map<string, EffectiveLimits>> {
 	const ids = [...new Set(clientIds)];
-	const result = new Map<string, EffectiveLimits>();
-	if (ids.length === 0) return result;
-	const scope = options.selfReports ?? 'none';
-	// One after the other: a transaction is one connection, which runs one query at a time.
+	if (ids.length === 0) return new Map();
 	const records = await tx.select().from(clients).where(inArray(clients.id, ids));
+	return limitsForRecords(tx, records, today, options);
+}
+
+/**
+ * As `loadEffectiveLimits`, for client rows the caller has just read in the same transaction
+ * (a list page, a plan's roster): one statement fewer.
+ */
+export async function limitsForRecords(
+	tx: Executor,
+	records: readonly ClientRow[],
+	today: string,
+	options: { selfReports?: SelfReportScope } = {}
+): Promise<Map<string, EffectiveLimits>> {
+	const result = new Map<string, EffectiveLimits>();
+	const scope = options.selfReports ?? 'none';
 	const missing: ClientRow[] = [];
 	for (const record of records) {
 		const known = recalledLimits(record.id, record.limitsVersion, today, scope);

@@ -1,5 +1,5 @@
 import { clearanceStatus } from '$lib/clearance/words';
-import { loadEffectiveLimits } from '../clearance/limits';
+import { limitsForRecords } from '../clearance/limits';
 import { and, asc, eq, ilike, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import {
@@ -106,12 +106,9 @@ export async function listClients(
 			}))
 		);
 		// One batched load for the page's badges (see clearance/limits.ts).
-		const limits = await loadEffectiveLimits(
-			tx,
-			page.items.map((row) => row.id),
-			new Date().toISOString().slice(0, 10),
-			{ selfReports: 'shared' }
-		);
+		const limits = await limitsForRecords(tx, page.items, new Date().toISOString().slice(0, 10), {
+			selfReports: 'shared'
+		});
 		return {
 			items: page.items.map((row) => {
 				const found = limits.get(row.id);
