@@ -1,4 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { db } from '../db';
+import { referralListViews } from '../db/schema';
 import { listReferrals, transitionReferral } from './service';
 import {
 	addConsent,
@@ -142,5 +145,27 @@ describe('logging list reads', () => {
 		// A person asking (not a background refresh) is always logged.
 		await list(physio);
 		expect(await count()).toBe(9);
+	});
+
+	it('a read that finds nothing moved writes no list-view rows (open tabs do not queue on row locks)', async () => {
+		const { physio, ids } = await clinicWithInbox();
+		const views = () =>
+			db()
+				.select({ referralId: referralListViews.referralId, seenAt: referralListViews.seenAt })
+				.from(referralListViews)
+				.where(eq(referralListViews.userId, physio.userId));
+		await list(physio);
+		const first = new Map((await views()).map((v) => [v.referralId, v.seenAt.getTime()]));
+		expect(first.size).toBe(4);
+		await list(physio);
+		await list(physio, { background: true });
+		const again = new Map((await views()).map((v) => [v.referralId, v.seenAt.getTime()]));
+		expect(again).toEqual(first);
+		// A referral that moves is written back, so the next refresh does not log it again.
+		await transitionReferral(physio.caller, ids.a, { to: 'accepted', reason: null });
+		await list(physio);
+		const moved = new Map((await views()).map((v) => [v.referralId, v.seenAt.getTime()]));
+		expect(moved.get(ids.a)).not.toBe(first.get(ids.a));
+		expect(moved.get(ids.b)).toBe(first.get(ids.b));
 	});
 });

@@ -179,38 +179,41 @@ async function logListed(
 ): Promise<void> {
 	if (items.length === 0) return;
 	const userId = caller.actor.userId;
-	let toLog = items;
-	if (background) {
-		const seen = await tx
-			.select({ referralId: referralListViews.referralId, state: referralListViews.state })
-			.from(referralListViews)
-			.where(
-				and(
-					eq(referralListViews.userId, userId),
-					inArray(
-						referralListViews.referralId,
-						items.map((i) => i.referral.id)
-					)
+	// The state each referral had when she last saw it in a list: a background refresh logs
+	// only the referrals that moved since, and only those are written back. Writing every row
+	// on every read made her open tabs queue behind each other's row locks.
+	const seen = await tx
+		.select({ referralId: referralListViews.referralId, state: referralListViews.state })
+		.from(referralListViews)
+		.where(
+			and(
+				eq(referralListViews.userId, userId),
+				inArray(
+					referralListViews.referralId,
+					items.map((i) => i.referral.id)
 				)
-			);
-		const known = new Map(seen.map((s) => [s.referralId, s.state]));
-		toLog = items.filter((i) => known.get(i.referral.id) !== i.referral.state);
+			)
+		);
+	const known = new Map(seen.map((s) => [s.referralId, s.state]));
+	const moved = items.filter((i) => known.get(i.referral.id) !== i.referral.state);
+	const toLog = background ? moved : items;
+	if (toLog.length > 0) {
+		await recordAccesses(
+			tx,
+			caller.access,
+			toLog.map((item) => ({
+				action: 'referral.listed' as const,
+				outcome: 'success' as const,
+				target: { type: 'referral', id: item.referral.id },
+				clientId: item.referral.clientId
+			}))
+		);
 	}
-	if (toLog.length === 0) return;
-	await recordAccesses(
-		tx,
-		caller.access,
-		toLog.map((item) => ({
-			action: 'referral.listed' as const,
-			outcome: 'success' as const,
-			target: { type: 'referral', id: item.referral.id },
-			clientId: item.referral.clientId
-		}))
-	);
+	if (moved.length === 0) return;
 	await tx
 		.insert(referralListViews)
 		.values(
-			toLog.map((item) => ({ userId, referralId: item.referral.id, state: item.referral.state }))
+			moved.map((item) => ({ userId, referralId: item.referral.id, state: item.referral.state }))
 		)
 		.onConflictDoUpdate({
 			target: [referralListViews.userId, referralListViews.referralId],
