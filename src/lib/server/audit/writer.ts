@@ -1,4 +1,4 @@
-import { inArray } from 'drizzle-orm';
+import { inArray, sql } from 'drizzle-orm';
 import { db, type Executor } from '../db';
 import { accessLog, subjectKeys } from '../db/schema';
 import { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } from './actions';
@@ -70,20 +70,23 @@ export async function recordAccesses(
 		executor,
 		events.flatMap((e) => (e.clientId ? [e.clientId] : []))
 	);
-	await executor.insert(accessLog).values(
-		events.map((event) => ({
-			actorUserId: context.userId,
-			actorRole: context.role,
-			actorOrganisationId: context.organisationId,
-			action: event.action,
-			targetType: event.target?.type ?? null,
-			targetId: event.target?.id ?? null,
-			subjectKey: event.clientId ? (keys.get(event.clientId) ?? null) : null,
-			outcome: event.outcome,
-			clientAddress: context.address,
-			userAgent: context.userAgent?.slice(0, 512) ?? null
-		}))
-	);
+	// One array parameter per column (unnest), not one parameter per cell: the statement is
+	// the same size for 1 row or 25, and cheap to build and send.
+	const column = <T>(pick: (event: AccessEvent) => T) => sql.param(events.map(pick));
+	await executor.execute(sql`
+		insert into ${accessLog} (actor_user_id, actor_role, actor_organisation_id, action,
+			target_type, target_id, subject_key, outcome, client_address, user_agent)
+		select ${context.userId}::uuid, ${context.role}::text, ${context.organisationId}::uuid,
+			e.action, e.target_type, e.target_id, e.subject_key, e.outcome,
+			${context.address}::text, ${context.userAgent?.slice(0, 512) ?? null}::text
+		from unnest(
+			${column((e) => e.action)}::text[],
+			${column((e) => e.target?.type ?? null)}::text[],
+			${column((e) => e.target?.id ?? null)}::text[],
+			${column((e) => (e.clientId ? (keys.get(e.clientId) ?? null) : null))}::uuid[],
+			${column((e) => e.outcome)}::text[]
+		) with ordinality as e(action, target_type, target_id, subject_key, outcome, n)
+		order by e.n`);
 	if (events.some((e) => e.outcome !== 'success')) refusalsRecorded.add(context);
 }
 
