@@ -13,13 +13,13 @@
 import autocannon from 'autocannon';
 import { spawn, spawnSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:http';
 import { join } from 'node:path';
-import { gzipSync } from 'node:zlib';
 import pg from 'pg';
 import { root } from './lib/env.mjs';
 import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
+import { pageJavaScript } from './lib/page-js.mjs';
 import { bringUpDatabase } from './lib/stack.mjs';
 import { throwawayEnv } from './lib/throwaway.mjs';
 
@@ -223,7 +223,7 @@ try {
 			log(`measuring ${target.name} …`);
 			results.push({ ...target, ...(await measure(target)) });
 		}
-		const pages = pageJavaScript();
+		const pages = pageJavaScript(join(root, kitDir));
 		log(`raw: ${JSON.stringify({ results, exported, chain, bootSeconds })}`);
 		report({ results, exported, chain, pages, bootSeconds, counts });
 	}
@@ -358,56 +358,6 @@ async function exportWholeLog(cookie, pid) {
 	clearInterval(sampler);
 	peak = Math.max(peak, rss());
 	return { status: response.status, rows, bytes, seconds, peakRssMb: peak, startRssMb: before };
-}
-
-/**
- * The gzipped JavaScript each page loads: the client entry and the page's nodes (its layouts
- * and the page itself) with every chunk they import, read from the build's Vite manifest.
- */
-function pageJavaScript() {
-	const manifestPath = join(root, kitDir, 'output/client/.vite/manifest.json');
-	const appPath = join(root, kitDir, 'generated/client-optimized/app.js');
-	if (!existsSync(manifestPath) || !existsSync(appPath)) return [];
-	const manifest = JSON.parse(readFileSync(manifestPath, 'utf8'));
-	const clientDir = join(root, kitDir, 'output/client');
-	const gz = new Map();
-	const gzipped = (file) => {
-		if (!gz.has(file)) gz.set(file, gzipSync(readFileSync(join(clientDir, file))).length);
-		return gz.get(file);
-	};
-	const closure = (key, seen) => {
-		const chunk = manifest[key];
-		if (!chunk || seen.has(key)) return;
-		seen.add(key);
-		for (const next of [...(chunk.imports ?? [])]) closure(next, seen);
-	};
-	const keyOf = (suffix) => Object.keys(manifest).find((k) => k.endsWith(suffix));
-	const entries = Object.keys(manifest).filter(
-		(k) => manifest[k].isEntry && /(start|app)\.js$/.test(k)
-	);
-	// dictionary: { "/(app)/clients/[id]": [page, [layouts …]], … } in app.js.
-	const app = readFileSync(appPath, 'utf8');
-	const dictionary = /dictionary\s*=\s*(\{[\s\S]*?\n\s*\});/.exec(app)?.[1] ?? '{}';
-	const routes = [...dictionary.matchAll(/"([^"]+)":\s*\[(~?-?\d+)(?:,\s*\[([^\]]*)\])?/g)];
-	return routes.map(([, route, page, layouts]) => {
-		const nodes = [
-			0,
-			...(layouts ?? '')
-				.split(',')
-				.map((n) => n.trim())
-				.filter(Boolean)
-				.map(Number),
-			Math.abs(Number(page.replace('~', '')))
-		];
-		const seen = new Set();
-		for (const entry of entries) closure(entry, seen);
-		for (const node of new Set(nodes)) {
-			const key = keyOf(`nodes/${Math.abs(node)}.js`);
-			if (key) closure(key, seen);
-		}
-		const kb = [...seen].reduce((sum, key) => sum + gzipped(manifest[key].file), 0) / 1024;
-		return { route, kb };
-	});
 }
 
 function fmt(n, digits = 0) {

@@ -5,7 +5,7 @@ import {
 	type FormResult,
 	type FormValues
 } from '$lib/forms';
-import { MOVEMENT_CATEGORIES, type MovementCategory } from '$lib/domain/movement';
+import { MOVEMENT_CATEGORIES } from '$lib/domain/movement';
 import {
 	assessmentSchema,
 	clearanceSchema,
@@ -13,21 +13,13 @@ import {
 	type ClearanceData
 } from './schemas';
 import type { HerniaFinding } from './types';
+import { HERNIA_HOLDS, POINT_ROWS } from './form-constants';
+
+export { HERNIA_HOLDS, POINT_ROWS };
 
 // The assessment and clearance forms post flat fields; these shape them like the API's JSON so
 // one schema checks both, and turn its issues back into errors keyed by field name. Pure and
 // browser-safe.
-
-/** Rows the assessment form offers (without JavaScript, every row is always there). */
-export const POINT_ROWS = 4;
-
-/** Hernia suspected or found: these wait unless she confirms clearing them. */
-export const HERNIA_HOLDS: readonly MovementCategory[] = [
-	'high_pressure',
-	'loaded_flexion',
-	'long_lever',
-	'impact'
-];
 
 const str = (values: FormValues, key: string): string => {
 	const value = values[key];

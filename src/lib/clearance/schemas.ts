@@ -2,14 +2,15 @@ import { z } from 'zod';
 import { requiredText, nullableText } from '$lib/schemas/text';
 import { CLEARANCE_LEVELS, MOVEMENT_CATEGORIES, type MovementCategory } from '$lib/domain/movement';
 import { HERNIA_FINDINGS, MEASUREMENT_METHODS, MEASUREMENT_POSITIONS } from './types';
+import { REVIEW_MAX_WEEKS, reviewWindow } from './review-window';
+
+export { REVIEW_MAX_WEEKS, reviewWindow };
 
 // Input schemas for assessments and clearances, shared by the JSON API, the form actions and
 // the browser (so this module stays free of server imports).
 
 export const MM_MAX = 150;
 export const DISTANCE_MAX_CM = 15;
-export const REVIEW_MAX_WEEKS = 26;
-const MS_PER_DAY = 86_400_000;
 
 const mm = z
 	.number({ error: 'must be a number of millimetres' })
@@ -95,13 +96,6 @@ export const assessmentSchema = z.object({
 	plan: requiredText(4000)
 });
 export type AssessmentData = z.infer<typeof assessmentSchema>;
-
-/** Today and the last allowed review day, as YYYY-MM-DD (UTC). */
-export function reviewWindow(now = new Date()): { first: string; last: string } {
-	const today = Date.parse(`${now.toISOString().slice(0, 10)}T00:00:00Z`);
-	const day = (ms: number) => new Date(ms).toISOString().slice(0, 10);
-	return { first: day(today + MS_PER_DAY), last: day(today + REVIEW_MAX_WEEKS * 7 * MS_PER_DAY) };
-}
 
 const levelSchema = z.enum(CLEARANCE_LEVELS, {
 	error: `must be one of ${CLEARANCE_LEVELS.join(', ')}`

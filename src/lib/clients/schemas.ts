@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { text, requiredText, optionalText } from '$lib/schemas/text';
+import { CONSENT_METHODS, DELIVERIES, CLIENT_SORTS, NEEDS } from './constants';
 import {
 	DEPTHS,
 	FINGER_WIDTH_MAX,
@@ -13,16 +14,6 @@ import {
 // Input schemas for client records and screenings, shared by the JSON API, the form actions
 // and the browser (so this module must stay free of server imports). The API reads JSON
 // into them directly; the forms first turn FormData into the same shape (see ./form.ts).
-
-export const DELIVERIES = ['vaginal', 'caesarean'] as const;
-export const CONSENT_METHODS = ['in_person', 'signed_form', 'online'] as const;
-export type ConsentMethod = (typeof CONSENT_METHODS)[number];
-
-export const CONSENT_METHOD_LABELS: Record<ConsentMethod, string> = {
-	in_person: 'In person',
-	signed_form: 'Signed form',
-	online: 'Online'
-};
 
 /** A few minutes' grace for clocks that run slightly ahead of the server's. */
 const FUTURE_GRACE_MS = 5 * 60_000;
@@ -261,11 +252,6 @@ export type ClientPatchInput = Record<string, unknown> & {
 	intakeConsent?: z.infer<typeof intakeConsentSchema>;
 };
 
-export const NEEDS = ['referral', 'screening'] as const;
-export type Needs = (typeof NEEDS)[number];
-export const CLIENT_SORTS = ['name', 'lastScreenedAt'] as const;
-export type ClientSort = (typeof CLIENT_SORTS)[number];
-
 /** GET /api/v1/clients query (limit and cursor are added on the server). */
 export const clientListFilterSchema = z.object({
 	search: text(100)
@@ -276,5 +262,14 @@ export const clientListFilterSchema = z.object({
 });
 export type ClientListFilter = z.infer<typeof clientListFilterSchema>;
 
-/** "Needs a screening": none in this many weeks (or never). */
-export const SCREENING_DUE_WEEKS = 8;
+export {
+	DELIVERIES,
+	CONSENT_METHODS,
+	CONSENT_METHOD_LABELS,
+	NEEDS,
+	CLIENT_SORTS,
+	SCREENING_DUE_WEEKS,
+	type ConsentMethod,
+	type Needs,
+	type ClientSort
+} from './constants';

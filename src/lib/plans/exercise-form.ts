@@ -1,20 +1,10 @@
 // The studio's own exercise as a form: its words for people, and the parser from posted fields
 // to the API's shape (`exerciseCreateSchema`), shared by the form action and its tests.
-import { parseForm, textOf, type FormResult, type FormValues, type FormWords } from '$lib/forms';
+import { parseForm, textOf, type FormResult, type FormValues } from '$lib/forms';
 import { exerciseCreateSchema, type ExerciseCreateInput } from './schemas';
+import { EXERCISE_WORDS } from './exercise-words';
 
-export const EXERCISE_WORDS: FormWords = {
-	name: { label: 'Name', missing: 'Give the exercise a name' },
-	description: {
-		label: 'How to do it',
-		missing: 'Say how to do it, what to feel and one cue'
-	},
-	position: { label: 'Position', missing: 'Choose the position' },
-	difficulty: { label: 'Difficulty', missing: 'Choose a difficulty from 1 to 3' },
-	categories: { label: 'What it loads', missing: 'Tick at least one movement category' },
-	alternativeIds: { label: 'Alternatives' },
-	why: { label: 'Why these categories' }
-};
+export { EXERCISE_WORDS };
 
 export const EXERCISE_LISTS = ['categories', 'alternativeIds'] as const;
 
