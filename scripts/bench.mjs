@@ -17,7 +17,7 @@ import { readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:http';
 import { join } from 'node:path';
 import pg from 'pg';
-import { root } from './lib/env.mjs';
+import { APP_NODE_FLAGS, root } from './lib/env.mjs';
 import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
 import { pageJavaScript } from './lib/page-js.mjs';
 import { bringUpDatabase } from './lib/stack.mjs';
@@ -93,7 +93,7 @@ try {
 	);
 
 	const spawnedAt = Date.now();
-	const app = spawn(process.execPath, [buildDir], {
+	const app = spawn(process.execPath, [...APP_NODE_FLAGS, buildDir], {
 		cwd: root,
 		env: { ...env, SEAMWELL_BENCH: '1' },
 		stdio: 'ignore'

@@ -4,7 +4,7 @@
 // the rest keeps running. Ctrl-C stops everything; data stays in .data/ for the next start.
 import { spawn, spawnSync } from 'node:child_process';
 import { join } from 'node:path';
-import { ensureEnvFile, loadEnv, recordStackSettings, root } from './lib/env.mjs';
+import { APP_NODE_FLAGS, ensureEnvFile, loadEnv, recordStackSettings, root } from './lib/env.mjs';
 import { mailReady, s3Ready, spawnMailFake, spawnS3Fake, waitForHttp } from './lib/fakes.mjs';
 import { ensureQpdfInstalled } from './lib/qpdf.mjs';
 import { supervise } from './lib/supervise.mjs';
@@ -76,7 +76,8 @@ try {
 	} else {
 		log('Building the app (vite build) …');
 		runOrThrow('npx', ['vite', 'build', '--logLevel', 'warn'], env);
-		startApp = () => spawn(process.execPath, ['build'], { cwd: root, env, stdio: 'inherit' });
+		startApp = () =>
+			spawn(process.execPath, [...APP_NODE_FLAGS, 'build'], { cwd: root, env, stdio: 'inherit' });
 	}
 	const app = supervise({
 		name: 'app',

@@ -4,7 +4,7 @@
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { root } from './lib/env.mjs';
+import { APP_NODE_FLAGS, root } from './lib/env.mjs';
 import { startFakes, stopChild, waitForHttp } from './lib/fakes.mjs';
 import { aptInstall } from './lib/postgres.mjs';
 import { bringUpDatabase } from './lib/stack.mjs';
@@ -116,7 +116,7 @@ try {
 		if (want('browser')) {
 			if (stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'])) {
 				stage('demo data', 'npx', ['tsx', 'scripts/demo.ts', '--reset-data']);
-				const app = spawn(process.execPath, [buildDir], {
+				const app = spawn(process.execPath, [...APP_NODE_FLAGS, buildDir], {
 					cwd: root,
 					env: testEnv,
 					stdio: ['ignore', 'ignore', 'inherit']
