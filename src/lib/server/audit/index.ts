@@ -5,6 +5,7 @@ export {
 	recordRefusal,
 	hasRecordedRefusal,
 	subjectKeyFor,
+	forgetSubjectKey,
 	systemContext,
 	type AccessContext,
 	type AccessEvent

@@ -41,6 +41,40 @@ async function connect(url: string) {
 }
 
 describe('the access-log writer', () => {
+	it('a key made in a transaction that rolls back is not reused: every logged key maps to its client', async () => {
+		const who = context();
+		const client = await createTestClient(db());
+		const rollback = new Error('roll back');
+		await expect(
+			db().transaction(async (tx) => {
+				// The first access makes her key; the second finds it, still uncommitted.
+				await recordAccess(tx, who, {
+					action: 'client.read',
+					outcome: 'success',
+					clientId: client
+				});
+				await recordAccess(tx, who, {
+					action: 'client.read',
+					outcome: 'success',
+					clientId: client
+				});
+				throw rollback;
+			})
+		).rejects.toBe(rollback);
+		for (let i = 0; i < 2; i++) {
+			await db().transaction((tx) =>
+				recordAccess(tx, who, { action: 'client.read', outcome: 'success', clientId: client })
+			);
+		}
+		const [row] = await db()
+			.select({ key: subjectKeys.key })
+			.from(subjectKeys)
+			.where(eq(subjectKeys.clientId, client));
+		const logged = await rowsOf(who.userId!);
+		expect(logged).toHaveLength(2);
+		expect(logged.map((r) => r.subjectKey)).toEqual([row!.key, row!.key]);
+	});
+
 	it('records a batch in order with one key per client, creating only the missing keys', async () => {
 		const who = context();
 		const known = await createTestClient(db());

@@ -122,30 +122,65 @@ export async function subjectKeyFor(executor: Executor, clientId: string): Promi
 }
 
 /**
- * The subject keys of several clients, creating the missing ones: one select when every key
- * exists (the usual case), else an insert of the missing ones and a second select.
+ * Subject keys known to be committed, per client: a key never changes, so a request that logs
+ * an access to a client this process has seen before needs no lookup. Only keys created before
+ * the current transaction began are kept (a key made in a transaction that then rolls back
+ * must not outlive it). Erasing a client deletes her key; `forgetSubjectKey` drops it here,
+ * and a copy another process still holds can only label rows about a client who is gone, with
+ * a key nothing maps back to her.
+ */
+const knownKeys = new Map<string, string>();
+const KNOWN_KEYS_MAX = 50_000;
+
+export function forgetSubjectKey(clientId: string): void {
+	knownKeys.delete(clientId);
+}
+
+function remember(clientId: string, key: string): void {
+	if (knownKeys.size >= KNOWN_KEYS_MAX) {
+		const oldest = knownKeys.keys().next().value;
+		if (oldest !== undefined) knownKeys.delete(oldest);
+	}
+	knownKeys.set(clientId, key);
+}
+
+/**
+ * The subject keys of several clients, creating the missing ones: none or one select when
+ * every key exists (the usual case), else an insert of the missing ones and a second select.
  */
 async function subjectKeysFor(
 	executor: Executor,
 	clientIds: readonly string[]
 ): Promise<Map<string, string>> {
-	const wanted = [...new Set(clientIds)];
-	if (wanted.length === 0) return new Map();
-	const read = async () =>
-		new Map(
-			(
-				await executor
-					.select({ clientId: subjectKeys.clientId, key: subjectKeys.key })
-					.from(subjectKeys)
-					.where(inArray(subjectKeys.clientId, wanted))
-			).map((row) => [row.clientId, row.key])
-		);
-	const found = await read();
+	const found = new Map<string, string>();
+	const wanted: string[] = [];
+	for (const id of new Set(clientIds)) {
+		const key = knownKeys.get(id);
+		if (key) found.set(id, key);
+		else wanted.push(id);
+	}
+	if (wanted.length === 0) return found;
+	const read = async (ids: string[]) => {
+		const rows = await executor
+			.select({
+				clientId: subjectKeys.clientId,
+				key: subjectKeys.key,
+				committed: sql<boolean>`${subjectKeys.createdAt} < now()`
+			})
+			.from(subjectKeys)
+			.where(inArray(subjectKeys.clientId, ids));
+		for (const row of rows) {
+			found.set(row.clientId, row.key);
+			if (row.committed) remember(row.clientId, row.key);
+		}
+	};
+	await read(wanted);
 	const missing = wanted.filter((id) => !found.has(id));
 	if (missing.length === 0) return found;
 	await executor
 		.insert(subjectKeys)
 		.values(missing.map((clientId) => ({ clientId })))
 		.onConflictDoNothing({ target: subjectKeys.clientId });
-	return read();
+	await read(missing);
+	return found;
 }

@@ -1,6 +1,6 @@
 import { and, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { AccessContext } from '../audit';
-import { recordAccess } from '../audit';
+import { forgetSubjectKey, recordAccess } from '../audit';
 import { config } from '../config';
 import type { Transaction } from '../db';
 import {
@@ -210,6 +210,7 @@ export async function eraseClient(
 	// link would lead nowhere now, and the queue is no archive.
 	await tx.delete(outbox).where(sql`position(${clientId} in ${outbox.text}) > 0`);
 	await tx.delete(subjectKeys).where(eq(subjectKeys.clientId, clientId));
+	forgetSubjectKey(clientId);
 
 	// 5. Mail: the confirmation to her; each clinic that keeps a referral is told the studio
 	//    erased its copy (no name, no detail: a link to the clinic's own referral).
