@@ -11,6 +11,12 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 1,
 	reporter: [['list']],
+	// The suite as a person meets it, then the main forms again with scripts switched off
+	// (tests/browser/no-js/): every form must work as a plain HTML post.
+	projects: [
+		{ name: 'browser', testIgnore: 'no-js/**' },
+		{ name: 'no-js', testMatch: 'no-js/**/*.test.ts', use: { javaScriptEnabled: false } }
+	],
 	use: {
 		baseURL: process.env.ORIGIN ?? 'http://127.0.0.1:3010',
 		screenshot: 'only-on-failure',
