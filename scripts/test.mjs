@@ -114,7 +114,10 @@ try {
 			stage('integration', 'npx', ['vitest', 'run', '--project', 'integration', ...filters]);
 
 		if (want('browser')) {
-			if (stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'])) {
+			// The production build (as `npm start` runs it), not Svelte's development mode.
+			if (
+				stage('build', 'npx', ['vite', 'build', '--logLevel', 'warn'], { NODE_ENV: 'production' })
+			) {
 				stage('demo data', 'npx', ['tsx', 'scripts/demo.ts', '--reset-data']);
 				const app = spawn(process.execPath, [...APP_NODE_FLAGS, buildDir], {
 					cwd: root,
