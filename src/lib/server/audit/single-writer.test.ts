@@ -23,9 +23,11 @@ const writersOf = (pattern: RegExp) =>
 
 describe('the access log has one writer', () => {
 	it('only the writer inserts rows', () => {
-		expect(writersOf(/\.insert\(\s*accessLog\s*\)|insert\s+into\s+"?access_log"?(?!_)/i)).toEqual([
-			'src/lib/server/audit/writer.ts'
-		]);
+		expect(
+			writersOf(
+				/\.insert\(\s*accessLog\s*\)|insert\s+into\s+(\$\{accessLog\}|"?access_log"?(?!_))/i
+			)
+		).toEqual(['src/lib/server/audit/writer.ts']);
 	});
 
 	it('only the sealer appends seals', () => {
