@@ -15,6 +15,10 @@ const HANA = { id: '<client:Hana Lindqvist>' };
 export const SELF_CARE_ROWS: Row[] = [
 	{ route: '/(app)/check', call: 'GET', expect: only(CLIENTS, 200) },
 	{ route: '/(app)/practice', call: 'GET', expect: only(CLIENTS, 200) },
+	// Her own forms: an empty post is not the page's form (400, nothing recorded); anyone
+	// else finds no such page (404, logged).
+	{ route: '/(app)/practice', call: 'POST ?/done', expect: only(CLIENTS, 400) },
+	{ route: '/(app)/practice', call: 'POST ?/reminder', expect: only(CLIENTS, 400) },
 	// An empty form is not the page's form: 400 for her instructors, 404 for everyone else.
 	{
 		route: '/(app)/clients/[id]',

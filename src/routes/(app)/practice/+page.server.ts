@@ -2,12 +2,16 @@ import { practiceSessionSchema } from '$lib/self-care/schemas';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
 import { failForm, failFromProblem } from '$lib/server/http/form';
+import { notHere } from '$lib/server/referrals/not-here';
+import { mayUseOwnSelfCare } from '$lib/server/self-care/policy';
 import {
 	getOwnHomePractice,
 	recordPracticeSession,
 	setPracticeReminder
 } from '$lib/server/self-care/service';
 import type { Actions, PageServerLoad } from './$types';
+
+const ROUTE = { type: 'route', id: '/(app)/practice' };
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
@@ -19,8 +23,17 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	done: async ({ locals, url, request }) => {
 		const caller = requirePageCaller(locals, url);
+		// Her own page: for anyone else it is not there (logged).
+		if (!mayUseOwnSelfCare(caller.actor)) {
+			await notHere(caller, 'home_practice.session_recorded', ROUTE);
+		}
 		const form = await request.formData();
-		const feltOk = form.get('feltOk') === 'true';
+		const answer = form.get('feltOk');
+		// A post without the answer is not this page's form: nothing is recorded.
+		if (answer !== 'true' && answer !== 'false') {
+			return failForm({}, { form: 'Choose whether it felt fine, then save again.' });
+		}
+		const feltOk = answer === 'true';
 		const note = String(form.get('note') ?? '').trim();
 		const parsed = practiceSessionSchema.safeParse({
 			doneAt: new Date().toISOString(),
@@ -43,7 +56,14 @@ export const actions: Actions = {
 	},
 	reminder: async ({ locals, url, request }) => {
 		const caller = requirePageCaller(locals, url);
-		const on = (await request.formData()).get('on') === 'true';
+		if (!mayUseOwnSelfCare(caller.actor)) {
+			await notHere(caller, 'home_practice.reminder_changed', ROUTE);
+		}
+		const choice = (await request.formData()).get('on');
+		if (choice !== 'true' && choice !== 'false') {
+			return failForm({}, { form: 'Choose to start or stop the reminder, then save again.' });
+		}
+		const on = choice === 'true';
 		try {
 			await setPracticeReminder(caller, on);
 			return { reminderSaved: true };
