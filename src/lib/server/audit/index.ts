@@ -2,6 +2,7 @@ export { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } fr
 export {
 	recordAccess,
 	recordAccesses,
+	recordSuccesses,
 	recordRefusal,
 	hasRecordedRefusal,
 	subjectKeyFor,

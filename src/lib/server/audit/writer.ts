@@ -90,6 +90,20 @@ export async function recordAccesses(
 	if (events.some((e) => e.outcome !== 'success')) refusalsRecorded.add(context);
 }
 
+/** One success row per record read or listed, in one statement (see `recordAccesses`). */
+export function recordSuccesses(
+	executor: Executor,
+	context: AccessContext,
+	action: AuditAction,
+	accessed: ReadonlyArray<Omit<AccessEvent, 'action' | 'outcome'>>
+): Promise<void> {
+	return recordAccesses(
+		executor,
+		context,
+		accessed.map((event) => ({ ...event, action, outcome: 'success' as const }))
+	);
+}
+
 /** Request contexts that already have a refusal on record (see hasRecordedRefusal). */
 const refusalsRecorded = new WeakSet<AccessContext>();
 

@@ -1,6 +1,6 @@
 import { and, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import type { ReviewItem } from '$lib/clearance/types';
-import { recordAccess, recordAccesses, systemContext } from '../audit';
+import { recordAccess, recordSuccesses, systemContext } from '../audit';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db, type Database, type Executor } from '../db';
@@ -68,12 +68,11 @@ export async function listClearanceReviews(caller: Caller): Promise<ReviewItem[]
 			)
 			.orderBy(clearances.reviewOn, clients.name)
 			.limit(100);
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'clearance.listed',
 			rows.map((row) => ({
-				action: 'clearance.listed' as const,
-				outcome: 'success' as const,
 				target: { type: 'clearance', id: row.clearanceId },
 				clientId: row.clientId
 			}))

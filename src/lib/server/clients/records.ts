@@ -8,7 +8,7 @@ import {
 	type ClientListFilter,
 	type ClientPatchInput
 } from '$lib/clients/schemas';
-import { recordAccess, recordAccesses, recordRefusal } from '../audit';
+import { recordAccess, recordSuccesses, recordRefusal } from '../audit';
 import type { Caller } from '../context';
 import { db } from '../db';
 import { clients } from '../db/schema';
@@ -95,12 +95,11 @@ export async function listClients(
 			k: byName ? last.name : (last.lastScreenedAt?.toISOString() ?? null),
 			id: last.id
 		}));
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'client.listed',
 			page.items.map((row) => ({
-				action: 'client.listed' as const,
-				outcome: 'success' as const,
 				target: { type: 'client', id: row.id },
 				clientId: row.id
 			}))

@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, isNull, or, sql, type SQL } from 'drizzle-
 import { alias } from 'drizzle-orm/pg-core';
 import { consentStatus, sharingEndedAt, type ShareScope } from '../../domain/consent';
 import { OPEN_SHARED_STATES, type ReferralState } from '../../domain/referral';
-import { recordAccess, recordAccesses } from '../audit';
+import { recordAccess, recordSuccesses } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import {
@@ -60,12 +60,11 @@ export async function listConsents(
 			t: last.startsAt.toISOString(),
 			id: last.id
 		}));
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'consent.read',
 			page.items.map((row) => ({
-				action: 'consent.read' as const,
-				outcome: 'success' as const,
 				target: { type: 'consent', id: row.id },
 				clientId: row.clientId
 			}))

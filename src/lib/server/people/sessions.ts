@@ -1,6 +1,6 @@
 import { and, desc, eq, gt, inArray, sql } from 'drizzle-orm';
 import { createHash } from 'node:crypto';
-import type { Actor, MemberRole, Membership, OrganisationKind } from '../actor';
+import type { Actor, Membership } from '../actor';
 import { recordAccess, type AccessContext } from '../audit';
 import type { AuditAction, AuditOutcome } from '../audit';
 import { config } from '../config';
@@ -101,12 +101,7 @@ type PersonRow = {
 	name: string | null;
 	active: boolean;
 	client_id: string | null;
-	memberships: Array<{
-		organisationId: string;
-		organisationName: string;
-		kind: OrganisationKind;
-		role: MemberRole;
-	}>;
+	memberships: Membership[];
 };
 
 /** The person, her active memberships and her client record, from `users u`. */

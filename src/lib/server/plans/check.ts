@@ -6,7 +6,7 @@ import type {
 	PlanCheckResult,
 	PlanCheckSnapshot
 } from '$lib/plans/types';
-import { recordAccess, recordAccesses } from '../audit';
+import { recordAccess, recordSuccesses } from '../audit';
 import { limitsForRecords } from '../clearance/limits';
 import { type Caller } from '../context';
 import { db, type Executor } from '../db';
@@ -32,12 +32,11 @@ async function runCheck(
 		.filter((c) => limits.has(c.id))
 		.map((c) => ({ clientId: c.id, stage: c.stage, limits: limits.get(c.id)! }));
 	// Reading each client's effective limits is reading her clearance: one row per client.
-	await recordAccesses(
+	await recordSuccesses(
 		tx,
 		caller.access,
+		'clearance.read',
 		withLimits.map((c) => ({
-			action: 'clearance.read' as const,
-			outcome: 'success' as const,
 			target: { type: 'plan', id: row.id },
 			clientId: c.clientId
 		}))
@@ -180,12 +179,11 @@ export async function markReady(
 				})
 				.returning({ id: planOverrides.id });
 			overrideId = saved!.id;
-			await recordAccesses(
+			await recordSuccesses(
 				tx,
 				caller.access,
+				'plan.overridden',
 				[...new Set(covered.map((c) => c.clientId))].map((clientId) => ({
-					action: 'plan.overridden' as const,
-					outcome: 'success' as const,
 					target: { type: 'plan_override', id: overrideId! },
 					clientId
 				}))

@@ -2,7 +2,7 @@ import { and, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { PlanCreateInput, PlanPatchInput } from '$lib/plans/schemas';
 import type { PlanDetail, PlanItem, PlanSummary } from '$lib/plans/types';
-import { recordAccesses } from '../audit';
+import { recordSuccesses } from '../audit';
 import { type Caller } from '../context';
 import { db, type Executor } from '../db';
 import { planClients, planOverrides, plans } from '../db/schema';
@@ -80,12 +80,11 @@ export async function listPlans(
 			u: last.plan.updatedAt.toISOString(),
 			id: last.plan.id
 		}));
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'plan.listed',
 			page.items.map(({ plan }) => ({
-				action: 'plan.listed' as const,
-				outcome: 'success' as const,
 				target: { type: 'plan', id: plan.id }
 			}))
 		);

@@ -1,7 +1,7 @@
 import { and, desc, eq, isNotNull, isNull } from 'drizzle-orm';
 import { checkPlan } from '$lib/domain/plan-check';
 import type { ForYouEntry } from '$lib/plans/types';
-import { recordAccesses } from '../audit';
+import { recordSuccesses } from '../audit';
 import { loadEffectiveLimits } from '../clearance/limits';
 import { type Caller } from '../context';
 import { db } from '../db';
@@ -41,12 +41,11 @@ export async function plansForMe(caller: Caller): Promise<ForYouEntry[]> {
 		if (!mine) return [];
 		const names = new Map(library.map((e) => [e.id, e.name]));
 		const entries: ForYouEntry[] = [];
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'plan.read',
 			rows.map(({ plan }) => ({
-				action: 'plan.read' as const,
-				outcome: 'success' as const,
 				target: { type: 'plan', id: plan.id },
 				clientId
 			}))

@@ -1,6 +1,6 @@
 import { and, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { SHIPPED_EXERCISES } from '$lib/domain/exercises/exercise';
-import { recordAccess, recordAccesses } from '../audit';
+import { recordAccess, recordSuccesses } from '../audit';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
@@ -151,12 +151,11 @@ export async function listReviewRequests(caller: Caller): Promise<ReviewRequestI
 			.orderBy(desc(clearanceReviewRequests.createdAt))
 			.limit(50);
 		const exerciseNames = new Map(SHIPPED_EXERCISES.map((e) => [e.id, e.name]));
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'clearance.listed',
 			rows.map((r) => ({
-				action: 'clearance.listed' as const,
-				outcome: 'success' as const,
 				target: { type: 'clearance_review_request', id: r.request.id },
 				clientId: r.request.clientId
 			}))

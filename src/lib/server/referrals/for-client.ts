@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, ne } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { CLINIC_VISIBLE_STATES, type ReferralState } from '../../domain/referral';
-import { recordAccesses } from '../audit';
+import { recordSuccesses } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import { clients, organisations, referralEvents, referrals, users } from '../db/schema';
@@ -90,12 +90,11 @@ export async function listClientReferrals(
 					)
 					.orderBy(desc(referralEvents.at), desc(referralEvents.id))
 			: [];
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'referral.listed',
 			rows.map((row) => ({
-				action: 'referral.listed' as const,
-				outcome: 'success' as const,
 				target: { type: 'referral', id: row.id },
 				clientId: client.id
 			}))

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { REFERRAL_STATES, type ReferralState } from '../../domain/referral';
 import type { ReferralFilter } from '$lib/referrals/schemas';
 import type { ReferralListItem } from '$lib/referrals/types';
-import { recordAccesses } from '../audit';
+import { recordSuccesses } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db, type Executor } from '../db';
 import {
@@ -198,12 +198,11 @@ async function logListed(
 	const moved = items.filter((i) => known.get(i.referral.id) !== i.referral.state);
 	const toLog = background ? moved : items;
 	if (toLog.length > 0) {
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'referral.listed',
 			toLog.map((item) => ({
-				action: 'referral.listed' as const,
-				outcome: 'success' as const,
 				target: { type: 'referral', id: item.referral.id },
 				clientId: item.referral.clientId
 			}))

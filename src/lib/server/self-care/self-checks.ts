@@ -10,7 +10,7 @@ import {
 	type Stage
 } from '../../domain';
 import type { SelfCheckInputData } from '../../self-care/schemas';
-import { recordAccess, recordAccesses } from '../audit';
+import { recordAccess, recordAccesses, recordSuccesses } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import { clients, organisations, selfChecks, selfCheckSharing } from '../db/schema';
@@ -215,12 +215,11 @@ export async function listClientSelfChecks(
 			.where(eq(selfChecks.clientId, client.id))
 			.orderBy(desc(selfChecks.takenAt))
 			.limit(50);
-		await recordAccesses(
+		await recordSuccesses(
 			tx,
 			caller.access,
+			'self_check.read',
 			rows.map((row) => ({
-				action: 'self_check.read' as const,
-				outcome: 'success' as const,
 				target: { type: 'self_check', id: row.id },
 				clientId: client.id
 			}))
