@@ -12,11 +12,16 @@ import { throwawayEnv } from './lib/throwaway.mjs';
 
 const log = (line) => console.log(`[test] ${line}`);
 // `npm test -- unit` runs one stage; any other argument filters test files, e.g.
-// `npm test -- integration tests/integration/services.test.ts`.
+// `npm test -- integration tests/integration/services.test.ts`; a browser file alone, e.g.
+// `npm test -- tests/browser/no-js/flows.test.ts`, runs just the browser stage.
 const STAGES = ['static', 'unit', 'integration', 'browser'];
 const args = process.argv.slice(2);
 const only = args.filter((a) => STAGES.includes(a));
 const filters = args.filter((a) => !STAGES.includes(a));
+// A file under tests/browser/ given without a stage runs the browser stage alone (vitest would
+// find no such file and fail the unit and integration stages).
+if (only.length === 0 && filters.length > 0 && filters.every((f) => f.startsWith('tests/browser/')))
+	only.push('browser');
 const want = (stage) => only.length === 0 || only.includes(stage);
 
 const { env: testEnv, scratch } = throwawayEnv({
