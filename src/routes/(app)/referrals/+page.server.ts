@@ -3,8 +3,8 @@ import { notHere } from '$lib/server/referrals/not-here';
 import type { PageServerLoad } from './$types';
 import { instructorStudioIds, physioClinicIds } from '$lib/server/scope';
 
-// The list itself is fetched by the browser from /api/v1/referrals (and refreshed there);
-// the server only says which parts of the page this person has.
+// Which parts of the page this person has; the list itself is loaded by `+page.ts` from
+// /api/v1/referrals, like every list page's.
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
 	const { actor } = caller;

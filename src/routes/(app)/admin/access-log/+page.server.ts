@@ -1,33 +1,19 @@
 import { fail } from '@sveltejs/kit';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage } from '$lib/server/http/page';
-import { fieldErrors, ProblemError } from '$lib/server/http/problem';
-import { reviewQuery } from '$lib/server/audit/review/filters';
-import {
-	listAccessEvents,
-	summariseActivity,
-	verifyAccessLog
-} from '$lib/server/audit/review/service';
+import { ProblemError } from '$lib/server/http/problem';
+import { summariseActivity, verifyAccessLog } from '$lib/server/audit/review/service';
 import { listMembers } from '$lib/server/people/service';
 import type { Actions, PageServerLoad } from './$types';
 
-// The admin's access log: the first page is rendered here (it works without JavaScript); the
-// browser fetches later pages from /api/v1/audit with the same filters, which live in the URL.
+// The admin's access log: the week's summary and the filter's choices come from here; the
+// events themselves are loaded by `+page.ts` from /api/v1/audit, like every list page's.
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const caller = requirePageCaller(locals, url);
-	const parsed = reviewQuery.safeParse(Object.fromEntries(url.searchParams));
-	const query = parsed.success ? parsed.data : reviewQuery.parse({});
-	const errors = parsed.success ? [] : fieldErrors(parsed.error);
-	const [page, members, summary] = await forPage(() =>
-		Promise.all([
-			parsed.success ? listAccessEvents(caller, query) : { items: [], nextCursor: null },
-			listMembers(caller),
-			summariseActivity(caller, 1)
-		])
+	const [members, summary] = await forPage(() =>
+		Promise.all([listMembers(caller), summariseActivity(caller, 1)])
 	);
 	return {
-		page,
-		errors,
 		// One row per membership: a person who is both admin and instructor is listed once.
 		members: [
 			...new Map(
