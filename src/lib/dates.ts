@@ -36,6 +36,33 @@ const momentFormat = new Intl.DateTimeFormat(LOCALE, {
 	minute: '2-digit',
 	timeZone: 'UTC'
 });
+const momentSeconds = new Intl.DateTimeFormat(LOCALE, {
+	day: 'numeric',
+	month: 'short',
+	year: 'numeric',
+	hour: '2-digit',
+	minute: '2-digit',
+	second: '2-digit',
+	timeZone: 'UTC'
+});
+const weekdayShort = new Intl.DateTimeFormat(LOCALE, {
+	weekday: 'short',
+	day: 'numeric',
+	month: 'short',
+	timeZone: 'UTC'
+});
+const weekdayLong = new Intl.DateTimeFormat(LOCALE, {
+	weekday: 'long',
+	day: 'numeric',
+	month: 'long',
+	timeZone: 'UTC'
+});
+const clockSeconds = new Intl.DateTimeFormat(LOCALE, {
+	hour: '2-digit',
+	minute: '2-digit',
+	second: '2-digit',
+	timeZone: 'UTC'
+});
 const clock = new Intl.DateTimeFormat(LOCALE, {
 	hour: '2-digit',
 	minute: '2-digit',
@@ -55,6 +82,18 @@ export const formatDayMonth = (value: string | Date) => dayMonth.format(toDate(v
 
 /** "3 Dec 2026, 14:05 UTC": when something happened. */
 export const formatMoment = (value: string | Date) => `${momentFormat.format(toDate(value))} UTC`;
+
+/** "3 Dec 2026, 14:05:09 UTC": the access log, where seconds tell events apart. */
+export const formatMomentSeconds = (value: string | Date) =>
+	`${momentSeconds.format(toDate(value))} UTC`;
+
+/** "Thu 3 Dec, 18:30 UTC" (`long`: "Thursday 3 December, 18:30 UTC"): when a class meets. */
+export const formatSession = (value: string | Date, long = false) =>
+	`${(long ? weekdayLong : weekdayShort).format(toDate(value))}, ${formatClock(value)}`;
+
+/** "14:05:09 UTC": when a check ran, to the second. */
+export const formatClockSeconds = (value: string | Date) =>
+	`${clockSeconds.format(toDate(value))} UTC`;
 
 /** "14:05 UTC": the time of day, for "updated at". */
 export const formatClock = (value: string | Date) => `${clock.format(toDate(value))} UTC`;

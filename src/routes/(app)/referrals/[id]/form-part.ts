@@ -1,3 +1,4 @@
+import { formatDateLong } from '$lib/dates';
 // What the physiotherapist's two forms share: the values and errors a failed post sends back,
 // and how the page writes a day.
 export type FormPart = {
@@ -12,10 +13,4 @@ export const val = (part: FormPart | null, key: string): string | undefined => {
 
 export const err = (part: FormPart | null, key: string) => part?.errors[key];
 
-export const dayOf = (iso: string) =>
-	new Date(iso).toLocaleDateString('en-GB', {
-		day: 'numeric',
-		month: 'long',
-		year: 'numeric',
-		timeZone: 'UTC'
-	});
+export const dayOf = formatDateLong;
