@@ -1,8 +1,8 @@
 import { sql } from 'drizzle-orm';
-import { briefError } from '../db/errors';
 import type { Database } from '../db';
 import { anchorHead, type AnchorStore } from './anchors';
 import { chainColumns, GENESIS_HASH, linkHash, toChainRow } from './chain';
+import { startLoop, type Loop } from '../loop';
 
 // The sealer appends, for every access-log row in id order, one link (row id, previous hash,
 // hash) to access_log_seals. Requests never wait for it: rows insert freely and the sealer
@@ -110,10 +110,6 @@ async function sealBatch(database: Database, gapGraceMs: number, batchSize: numb
 	});
 }
 
-export interface SealerLoop {
-	stop(): Promise<void>;
-}
-
 /** How often at most a moving head is anchored (so at least every half minute with new rows). */
 export const DEFAULT_ANCHOR_EVERY_MS = 30_000;
 
@@ -130,45 +126,24 @@ export function startSealer(
 		anchors?: AnchorStore;
 		anchorEveryMs?: number;
 	} = {}
-): SealerLoop {
+): Loop {
 	const intervalMs = options.intervalMs ?? 1000;
 	const anchorEveryMs = options.anchorEveryMs ?? DEFAULT_ANCHOR_EVERY_MS;
 	let headMoved = false;
 	let lastAnchorAt = 0;
-	const log = options.log ?? ((line: string) => console.error(line));
-	let stopped = false;
-	let failing = false;
-	let running: Promise<void> = Promise.resolve();
-	let timer: NodeJS.Timeout | undefined;
-
-	const tick = () => {
-		running = (async () => {
-			try {
-				const result = await sealPending(database, options);
-				if (result.sealed > 0) headMoved = true;
-				if (options.anchors && headMoved && Date.now() - lastAnchorAt >= anchorEveryMs) {
-					await anchorHead(database, options.anchors);
-					headMoved = false;
-					lastAnchorAt = Date.now();
-				}
-				if (failing) log('[audit] sealer: database reachable again');
-				failing = false;
-			} catch (error) {
-				if (!failing) log(`[audit] sealer: ${briefError(error)}`);
-				failing = true;
+	return startLoop({
+		name: '[audit] sealer',
+		everyMs: intervalMs,
+		recovered: 'database reachable again',
+		log: options.log,
+		run: async () => {
+			const result = await sealPending(database, options);
+			if (result.sealed > 0) headMoved = true;
+			if (options.anchors && headMoved && Date.now() - lastAnchorAt >= anchorEveryMs) {
+				await anchorHead(database, options.anchors);
+				headMoved = false;
+				lastAnchorAt = Date.now();
 			}
-		})();
-		void running.then(() => {
-			if (!stopped) timer = setTimeout(tick, intervalMs);
-		});
-	};
-	tick();
-
-	return {
-		async stop() {
-			stopped = true;
-			clearTimeout(timer);
-			await running;
 		}
-	};
+	});
 }

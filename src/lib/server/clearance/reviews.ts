@@ -10,6 +10,7 @@ import { queueNotification } from '../mail/outbox';
 import { mayListReviews } from './policy';
 import { todayUtc } from './clearance';
 import { instructorStudioIds, physioClinicIds } from '../scope';
+import { startLoop, type Loop } from '../loop';
 
 // Review dates: the dashboards list current clearances due within REVIEW_SOON_DAYS and those
 // overdue; a background job queues one reminder REMINDER_DAYS before the review date to the
@@ -220,10 +221,6 @@ async function clientInstructors(
 	return [...new Set(everyone.map((r) => r.email))];
 }
 
-export interface ReminderLoop {
-	stop(): Promise<void>;
-}
-
 /** Runs sendReviewReminders every `intervalMs` (default 10 min); logs, never throws. */
 export function startReviewReminders(
 	database: Database,
@@ -233,37 +230,17 @@ export function startReviewReminders(
 		/** Other reminders sent on the same beat (the home-practice reminders). */
 		also?: (database: Database) => Promise<unknown>;
 	} = {}
-): ReminderLoop {
+): Loop {
 	const intervalMs = options.intervalMs ?? 10 * 60 * 1000;
-	const log = options.log ?? ((line: string) => console.error(line));
-	let stopped = false;
-	let failing = false;
-	let running: Promise<void> = Promise.resolve();
-	let timer: NodeJS.Timeout | undefined;
-	const tick = () => {
-		running = (async () => {
-			try {
-				await sendReviewReminders(database);
-				if (options.also) await options.also(database);
-				if (failing) log('[clearance] review reminders: database reachable again');
-				failing = false;
-			} catch (error) {
-				if (!failing) {
-					log(`[clearance] review reminders: ${error instanceof Error ? error.message : error}`);
-				}
-				failing = true;
-			}
-		})();
-		void running.then(() => {
-			if (!stopped) timer = setTimeout(tick, intervalMs);
-		});
-	};
-	timer = setTimeout(tick, Math.min(intervalMs, 30_000));
-	return {
-		async stop() {
-			stopped = true;
-			clearTimeout(timer);
-			await running;
+	return startLoop({
+		name: '[clearance] review reminders',
+		everyMs: intervalMs,
+		firstInMs: Math.min(intervalMs, 30_000),
+		recovered: 'database reachable again',
+		log: options.log,
+		run: async () => {
+			await sendReviewReminders(database);
+			if (options.also) await options.also(database);
 		}
-	};
+	});
 }

@@ -2,6 +2,7 @@ import { and, inArray, isNotNull } from 'drizzle-orm';
 import type { Database } from '../db';
 import { documents, referrals } from '../db/schema';
 import { deleteObject, listObjects } from '../storage';
+import { startLoop, type Loop } from '../loop';
 
 // Removes stored objects that no row accounts for. An upload writes its object before its
 // row, and a referral's letter is written inside the send's transaction, so for a moment an
@@ -65,10 +66,6 @@ export async function sweepOrphans(
 	return orphans;
 }
 
-export interface SweeperLoop {
-	stop(): Promise<void>;
-}
-
 /**
  * Runs `sweepOrphans` every `intervalMs` (default 15 min) until stopped. Storage or the
  * database being down is logged once per outage and retried next time; it never throws.
@@ -76,37 +73,18 @@ export interface SweeperLoop {
 export function startDocumentSweeper(
 	database: Database,
 	options: SweepOptions & { intervalMs?: number; log?: (line: string) => void } = {}
-): SweeperLoop {
+): Loop {
 	const intervalMs = options.intervalMs ?? 15 * 60 * 1000;
 	const log = options.log ?? ((line: string) => console.error(line));
-	let stopped = false;
-	let failing = false;
-	let running: Promise<void> = Promise.resolve();
-	let timer: NodeJS.Timeout | undefined;
-
-	const tick = () => {
-		running = (async () => {
-			try {
-				const deleted = await sweepOrphans(database, { graceMs: options.graceMs });
-				if (deleted.length > 0) log(`[documents] sweeper removed ${deleted.length} orphan(s)`);
-				if (failing) log('[documents] sweeper: storage and database reachable again');
-				failing = false;
-			} catch (error) {
-				if (!failing) log(`[documents] sweeper: ${error instanceof Error ? error.message : error}`);
-				failing = true;
-			}
-		})();
-		void running.then(() => {
-			if (!stopped) timer = setTimeout(tick, intervalMs);
-		});
-	};
-	timer = setTimeout(tick, Math.min(intervalMs, 60_000));
-
-	return {
-		async stop() {
-			stopped = true;
-			clearTimeout(timer);
-			await running;
+	return startLoop({
+		name: '[documents] sweeper',
+		everyMs: intervalMs,
+		firstInMs: Math.min(intervalMs, 60_000),
+		recovered: 'storage and database reachable again',
+		log,
+		run: async () => {
+			const deleted = await sweepOrphans(database, { graceMs: options.graceMs });
+			if (deleted.length > 0) log(`[documents] sweeper removed ${deleted.length} orphan(s)`);
 		}
-	};
+	});
 }

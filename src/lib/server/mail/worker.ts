@@ -5,6 +5,7 @@ import { briefError } from '../db/errors';
 import { outbox } from '../db/schema';
 import { SIGNIN_LINK_SECONDS } from '../people/sessions';
 import { deliver, type SendMail } from './transport';
+import { startLoop } from '../loop';
 
 /** The mail that confirms an erasure, and what its address becomes once it is sent. */
 export const ERASURE_CONFIRMATION_KIND = 'erasure.approved';
@@ -234,51 +235,28 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 	}
 
 	let stopped = false;
-	let running: Promise<void> | null = null;
-	let again = false;
-	let timer: NodeJS.Timeout | undefined;
-	let failing = false;
-
-	const schedule = (ms: number) => {
-		clearTimeout(timer);
-		if (!stopped) timer = setTimeout(wake, Math.min(ms, pollMs));
-	};
-
-	function wake() {
-		if (stopped) return;
-		if (running) {
-			again = true;
-			return;
+	// Sleeps until the next mail is due (at most `pollMs`), or until a notification wakes it.
+	const loop = startLoop({
+		name: '[mail] outbox worker',
+		everyMs: pollMs,
+		recovered: 'database reachable again',
+		log,
+		run: async () => {
+			const result = await processDue(database, settings);
+			if (result.failed > 0) {
+				log(
+					`[mail] ${result.failed} mail(s) failed for 48 hours and gave up (see the admin dashboard)`
+				);
+			}
+			if (result.expired > 0) {
+				log(
+					`[mail] ${result.expired} sign-in link(s) not delivered in time: dropped, not sent late`
+				);
+			}
+			return (await nextDueInMs(database)) ?? pollMs;
 		}
-		running = (async () => {
-			do {
-				again = false;
-				try {
-					const result = await processDue(database, settings);
-					if (result.failed > 0) {
-						log(
-							`[mail] ${result.failed} mail(s) failed for 48 hours and gave up (see the admin dashboard)`
-						);
-					}
-					if (result.expired > 0) {
-						log(
-							`[mail] ${result.expired} sign-in link(s) not delivered in time: dropped, not sent late`
-						);
-					}
-					const next = await nextDueInMs(database);
-					schedule(next ?? pollMs);
-					if (failing) log('[mail] outbox worker: database reachable again');
-					failing = false;
-				} catch (error) {
-					if (!failing) log(`[mail] outbox worker: ${briefError(error)}`);
-					failing = true;
-					schedule(pollMs);
-				}
-			} while (again && !stopped);
-		})().finally(() => {
-			running = null;
-		});
-	}
+	});
+	const wake = () => loop.wake();
 
 	// LISTEN on a connection of its own, reconnecting after a loss.
 	let listener: pg.Client | null = null;
@@ -296,7 +274,7 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 			if (listener === client) listener = null;
 			client.end().catch(() => {});
 			if (stopped) return;
-			if (error && !failing) log(`[mail] outbox listener: ${briefError(error)}`);
+			if (error && !loop.failing) log(`[mail] outbox listener: ${briefError(error)}`);
 			reconnect = setTimeout(() => void listen(), 2_000);
 		};
 		client.on('notification', () => wake());
@@ -312,19 +290,17 @@ export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
 		}
 	};
 	void listen();
-	wake();
 
 	return {
 		wake,
 		ready,
 		async stop() {
 			stopped = true;
-			clearTimeout(timer);
 			clearTimeout(reconnect);
 			const client = listener;
 			listener = null;
 			await client?.end().catch(() => {});
-			await running;
+			await loop.stop();
 		}
 	};
 }
