@@ -42,7 +42,7 @@ export const DIRECTION_WORDS: Record<ShareDirection, string> = {
 };
 
 /** Sending a referral needs both: the clinic receives the referral and the history it rests on. */
-export const SCOPES_TO_SEND_REFERRAL: readonly ShareScope[] = ['referral', 'screenings'];
+export const SEND_SCOPES: readonly ShareScope[] = ['referral', 'screenings'];
 
 export function isShareScope(value: string): value is ShareScope {
 	return (SHARE_SCOPES as readonly string[]).includes(value);

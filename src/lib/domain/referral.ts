@@ -2,7 +2,7 @@
 // move needs. Pure; the referral service and the pages both read this table, and the
 // integration tests check the server against an expected table written out by hand.
 
-import type { ShareScope } from './consent';
+import { SEND_SCOPES, type ShareScope } from './consent';
 
 export const REFERRAL_STATES = [
 	'draft',
@@ -62,7 +62,6 @@ export interface Transition {
 	consent: readonly ShareScope[];
 }
 
-const SEND_SCOPES: readonly ShareScope[] = ['referral', 'screenings'];
 const ACT_SCOPES: readonly ShareScope[] = ['referral'];
 const NONE: readonly ShareScope[] = [];
 

@@ -1,7 +1,7 @@
 import { and, asc, eq, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { z } from 'zod';
-import { SCOPES_TO_SEND_REFERRAL } from '../../domain/consent';
+import { SEND_SCOPES } from '../../domain/consent';
 import { transitionsFrom } from '../../domain/referral';
 import type { ReferralDetail, ReferralScreening } from '$lib/referrals/types';
 import { recordAccess } from '../audit';
@@ -97,7 +97,7 @@ export async function getReferral(caller: Caller, id: string): Promise<ReferralD
 			studioId: current.studioId,
 			clinicId: current.clinicId
 		};
-		const sending = await sharingState(tx, pair, SCOPES_TO_SEND_REFERRAL);
+		const sending = await sharingState(tx, pair, SEND_SCOPES);
 		const live = await sharingState(tx, pair, ['screenings']);
 		const roles = transitionRoles(actor, current);
 		await recordAccess(tx, caller.access, {

@@ -1,4 +1,5 @@
 import { sql } from 'drizzle-orm';
+import { REFERRAL_STATES } from '../../../domain/referral';
 import {
 	bigserial,
 	check,
@@ -13,7 +14,7 @@ import {
 } from 'drizzle-orm/pg-core';
 import type { ShareScope } from '../../../domain/consent';
 import type { RedFlag } from '../../../domain/red-flags';
-import type { SnapshotClient, SnapshotScreening } from '../../referrals/snapshot';
+import type { ReferralClient, ReferralScreening } from '../../../referrals/types';
 import { users } from './auth';
 import { clients } from './clients';
 import { organisations } from './organisations';
@@ -101,15 +102,8 @@ export const consentRequests = pgTable(
 	(t) => [index('consent_requests_client_idx').on(t.clientId, t.createdAt)]
 );
 
-export const referralState = pgEnum('referral_state', [
-	'draft',
-	'sent',
-	'accepted',
-	'declined',
-	'assessed',
-	'closed',
-	'withdrawn'
-]);
+// The states in the order the domain lists them (the migrations created the type in this order).
+export const referralState = pgEnum('referral_state', REFERRAL_STATES);
 export const referralUrgency = pgEnum('referral_urgency', ['routine', 'soon']);
 
 /** A referral from a studio's instructor to a clinic, optionally to one physiotherapist. */
@@ -198,8 +192,8 @@ export const referralSnapshots = pgTable('referral_snapshots', {
 		.primaryKey()
 		.references(() => referrals.id, { onDelete: 'cascade' }),
 	takenAt: timestamp('taken_at', tz).notNull(),
-	client: jsonb('client').$type<SnapshotClient>().notNull(),
-	screenings: jsonb('screenings').$type<SnapshotScreening[]>().notNull()
+	client: jsonb('client').$type<ReferralClient>().notNull(),
+	screenings: jsonb('screenings').$type<ReferralScreening[]>().notNull()
 });
 
 /**
