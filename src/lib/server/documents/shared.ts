@@ -1,12 +1,12 @@
 import { createHash } from 'node:crypto';
-import { eq } from 'drizzle-orm';
 import { type AuditAction } from '../audit';
 import { sharingState } from '../consents/grants';
-import { refuse, type Caller } from '../context';
-import { db, type Executor } from '../db';
-import { documents, referrals, users } from '../db/schema';
-import { notFound, ProblemError } from '../http/problem';
+import type { Caller } from '../context';
+import type { Executor } from '../db';
+import { documents, users } from '../db/schema';
+import { ProblemError } from '../http/problem';
 import { mayListDocuments } from './policy';
+import { visibleReferral as visibleByRule, type ReferralRow } from '../referrals/shared';
 import { type DocumentShare } from './schemas';
 
 // Assessment documents and the referral letter. Every exported function asserts its rule from
@@ -17,7 +17,7 @@ import { type DocumentShare } from './schemas';
 // its row second: a failed row deletes the object, and the sweeper (./sweeper.ts) removes any
 // object still without a row — whatever fails, no row ever points at a missing object.
 
-export type ReferralRow = typeof referrals.$inferSelect;
+export type { ReferralRow };
 type DocumentRow = typeof documents.$inferSelect;
 
 export interface DocumentItem {
@@ -52,18 +52,9 @@ export function storageUnavailable(cause: unknown): ProblemError {
 	});
 }
 
-/** A referral anyone on either side may see; anything else is logged as refused (404). */
-export async function visibleReferral(
-	caller: Caller,
-	id: string,
-	action: AuditAction
-): Promise<ReferralRow> {
-	const [row] = await db().select().from(referrals).where(eq(referrals.id, id));
-	if (!row || !mayListDocuments(caller.actor, row)) {
-		return refuse(caller, action, notFound(), { type: 'referral', id }, row?.clientId);
-	}
-	return row;
-}
+/** A referral whose documents the caller may see (either side); else a logged 404. */
+export const visibleReferral = (caller: Caller, id: string, action: AuditAction) =>
+	visibleByRule(caller, id, action, mayListDocuments);
 
 export const pairOf = (row: ReferralRow) => ({
 	clientId: row.clientId,

@@ -6,7 +6,7 @@ import { mayReadOwnRecord } from '../clients/policy';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
 import { notFound } from '../http/problem';
-import { decodeCursor, encodeCursor, type Page } from '../http/schemas';
+import { decodeCursor, toPage, type Page } from '../http/schemas';
 
 // "Who looked at or changed my record": the access-log rows that name the client (through her
 // subject key), newest first, for the client herself. Names are shown with their
@@ -77,10 +77,12 @@ export async function listOwnAccess(
 			target: { type: 'client', id: clientId },
 			clientId
 		});
-		const page = rows.rows.slice(0, query.limit);
-		const last = page.at(-1);
+		const page = toPage(rows.rows, query.limit, (last) => ({
+			at: Number(last.at_ms),
+			id: Number(last.id)
+		}));
 		return {
-			items: page.map((r) => ({
+			items: page.items.map((r) => ({
 				at: new Date(Number(r.at_ms)).toISOString(),
 				actor: { name: r.actor_name, role: r.actor_role, organisation: r.organisation },
 				you: r.actor_user_id === actor.userId,
@@ -89,10 +91,7 @@ export async function listOwnAccess(
 				label: actionLabel(r.action),
 				outcome: r.outcome
 			})),
-			nextCursor:
-				rows.rows.length > query.limit && last
-					? encodeCursor({ at: Number(last.at_ms), id: Number(last.id) })
-					: null
+			nextCursor: page.nextCursor
 		};
 	});
 }

@@ -8,7 +8,6 @@ import { mayReadReferral } from './policy';
 
 export type ReferralRow = typeof referrals.$inferSelect;
 
-/** A referral the caller may see; anything else is logged as refused and answers 404. */
 /**
  * The client a referral belongs to, for work that needs her record. Only a referral the
  * studio erased has none, and nobody reaches such work for it: the studio no longer sees it
@@ -24,13 +23,19 @@ export function heldClientId(row: { clientId: string | null }): string {
 	return row.clientId;
 }
 
+/**
+ * A referral the caller may see by `may` (by default: reading it, from either side); anything
+ * else is logged as refused and answers 404, so a referral she may not see and one that does
+ * not exist look the same.
+ */
 export async function visibleReferral(
 	caller: Caller,
 	id: string,
-	action: AuditAction
+	action: AuditAction,
+	may: (actor: Caller['actor'], row: ReferralRow) => boolean = mayReadReferral
 ): Promise<ReferralRow> {
 	const [row] = await db().select().from(referrals).where(eq(referrals.id, id));
-	if (!row || !mayReadReferral(caller.actor, row)) {
+	if (!row || !may(caller.actor, row)) {
 		return refuse(caller, action, notFound(), { type: 'referral', id }, row?.clientId);
 	}
 	return row;

@@ -4,7 +4,7 @@ import { db } from '../../db';
 import { recordAccess } from '../writer';
 import { notFound } from '../../http/problem';
 import { refuse } from '../../context';
-import { decodeCursor, encodeCursor, type Page } from '../../http/schemas';
+import { decodeCursor, toPage, type Page } from '../../http/schemas';
 import type { ReviewQuery } from './filters';
 import {
 	asReviewer,
@@ -35,12 +35,7 @@ export async function listAccessEvents(
 			target: { type: 'organisation', id: reviewer.organisationId },
 			clientId: q.client ?? null
 		});
-		const items = rows.slice(0, q.limit);
-		const last = items.at(-1);
-		return {
-			items,
-			nextCursor: rows.length > q.limit && last ? encodeCursor(cursorOf(last)) : null
-		};
+		return toPage(rows, q.limit, cursorOf);
 	});
 }
 
