@@ -118,7 +118,7 @@ async function referralsBehind(page: Page, label: string, count: number): Promis
 	await page.getByRole('link', { name: new RegExp(`^\\d+ ${label}$`) }).click();
 	await expect(page).toHaveURL(/\/referrals\?state=/);
 	await expect(page.getByRole('status')).toContainText(
-		count === 1 ? '1 referral on this page' : `${count} referrals on this page`
+		count === 1 ? '1 referral shown' : `${count} referrals shown`
 	);
 	return page.locator('tbody tr td:first-child a').allInnerTexts();
 }

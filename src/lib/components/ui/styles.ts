@@ -26,3 +26,22 @@ export function buttonClass(variant: ButtonVariant = 'primary', size: ButtonSize
 /** Text inputs, selects and text areas. */
 export const INPUT_CLASS =
 	'mt-1 w-full rounded-lg border border-sand-400 bg-white px-3 py-2 aria-invalid:border-outcome-refer aria-invalid:border-2';
+
+/**
+ * INPUT_CLASS with `extra` utilities. An extra margin-top, width or padding replaces the
+ * base one rather than competing with it (which of two utilities wins is the stylesheet's
+ * order, not the class list's).
+ */
+export function inputClass(extra: string): string {
+	const extras = extra.split(/\s+/).filter(Boolean);
+	const replaces: Record<string, RegExp> = {
+		'mt-1': /^mt-/,
+		'w-full': /^w-/,
+		'px-3': /^px-/,
+		'py-2': /^py-/
+	};
+	const base = INPUT_CLASS.split(' ').filter(
+		(c) => !(c in replaces && extras.some((e) => replaces[c]!.test(e)))
+	);
+	return [...base, ...extras].join(' ');
+}
