@@ -2,6 +2,7 @@ import type { Browser, Page } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
 import { expect, test } from './support/test';
 import { expectAccessible } from './a11y';
+import { seedSelfCareClient as seedClient } from './support/self-care';
 import { signIn, sql } from './support/signin';
 
 // Between classes on a phone: a client (invented by the spec, 20 weeks after a vaginal birth)
@@ -14,34 +15,6 @@ async function personPage(browser: Browser, email: string, width: number): Promi
 	const page = await context.newPage();
 	await signIn(page, email);
 	return page;
-}
-
-async function seedClient(email: string, name: string): Promise<string> {
-	const [user] = (await sql<{ id: string }>(
-		`insert into users (email, name) values ($1, $2) returning id`,
-		[email, name]
-	)) as Array<{ id: string }>;
-	const [client] = (await sql<{ id: string }>(
-		`insert into clients (organisation_id, user_id, name, email, stage, birth_date, delivery,
-			postnatal_check_on, postnatal_cleared, intake_consent_at, intake_consent_method)
-		 select id, $1, $2, $3, 'postpartum', (now() - interval '20 weeks')::date, 'vaginal',
-			(now() - interval '14 weeks')::date, true, now() - interval '12 weeks', 'in_person'
-		 from organisations where name = 'Linden Row Studio' returning id`,
-		[user!.id, name, email]
-	)) as Array<{ id: string }>;
-	await sql(
-		`insert into home_practices (client_id, organisation_id, items)
-		 select $1, id, $2::jsonb from organisations where name = 'Linden Row Studio'`,
-		[
-			client!.id,
-			JSON.stringify([
-				{ exerciseId: 'heel-slides', reps: '8 each side', note: null },
-				{ exerciseId: 'bent-knee-fall-outs', reps: '8 each side', note: null },
-				{ exerciseId: 'curl-up', reps: '5', note: 'Small lift only.' }
-			])
-		]
-	);
-	return client!.id;
 }
 
 test('the whole self-check on a 390 px phone, sharing, and marking a practice done', async ({

@@ -14,6 +14,8 @@ const HANA = { id: '<client:Hana Lindqvist>' };
 
 export const SELF_CARE_ROWS: Row[] = [
 	{ route: '/(app)/check', call: 'GET', expect: only(CLIENTS, 200) },
+	{ route: '/(app)/check', call: 'POST ?/record', expect: only(CLIENTS, 400) },
+	{ route: '/(app)/check', call: 'POST ?/sharing', expect: only(CLIENTS, 400) },
 	{ route: '/(app)/practice', call: 'GET', expect: only(CLIENTS, 200) },
 	// Her own forms: an empty post is not the page's form (400, nothing recorded); anyone
 	// else finds no such page (404, logged).

@@ -1,0 +1,80 @@
+import { ADVICE_RANK, SYMPTOM_URGENCY, type RedFlag, type SelfCheckSite } from '../domain';
+import { SITES, type Site } from '../domain/sites';
+import {
+	issuesToFormErrors,
+	listOf,
+	numberOf,
+	textOf,
+	type FormResult,
+	type FormValues
+} from '../forms';
+import { selfCheckInputSchema, type SelfCheckInputData } from './schemas';
+
+// The self-check as one plain form (the page without JavaScript): her symptoms, her answer
+// about a caesarean wound, and the three places, each left "Not checked" or given a width.
+// The same rules as the step-by-step page: an urgent symptom is answered at once without the
+// finger-width part, and so is a wound that has not healed (or that she is not sure of).
+
+/** The form's field names for one place. */
+export const siteField = (site: Site, part: 'width' | 'deep' | 'doming') => `${part}-${site}`;
+
+/** A symptom that needs help today or sooner: the advice comes without any self-examination. */
+export function isUrgent(symptoms: readonly RedFlag[]): boolean {
+	return symptoms.some((s) => ADVICE_RANK[SYMPTOM_URGENCY[s]] <= ADVICE_RANK.same_day);
+}
+
+const WORDS = {
+	symptoms: { label: 'Symptoms', missing: 'Tick what you noticed from the list, then save again.' },
+	woundHealed: { label: 'Your wound', missing: 'Say whether your caesarean wound has healed.' },
+	sites: { label: 'Finger widths' }
+};
+
+export function selfCheckFromForm(
+	values: FormValues,
+	takenAt: Date
+): FormResult<SelfCheckInputData> {
+	const symptoms = listOf(values, 'symptoms');
+	const wound = textOf(values, 'woundHealed');
+	const woundHealed = wound === 'yes' ? true : wound === 'no' ? false : wound === '' ? null : wound;
+	const widths = SITES.map((site) => numberOf(values, siteField(site, 'width')));
+	const given = widths.filter((w) => w !== undefined).length;
+	if (given > 0 && given < SITES.length) {
+		return {
+			ok: false,
+			values,
+			errors: {
+				sites: 'Give a finger width at all three places, or leave all three as “Not checked”.'
+			}
+		};
+	}
+	const sites =
+		given === SITES.length
+			? (Object.fromEntries(
+					SITES.map((site, i) => [
+						site,
+						{
+							widthFingers: widths[i],
+							deep: textOf(values, siteField(site, 'deep')) !== '',
+							doming: textOf(values, siteField(site, 'doming')) !== ''
+						}
+					])
+				) as Record<Site, SelfCheckSite>)
+			: null;
+	const parsed = selfCheckInputSchema.safeParse({
+		takenAt: takenAt.toISOString(),
+		symptoms,
+		woundHealed,
+		sites
+	});
+	if (!parsed.success) {
+		return {
+			ok: false,
+			values,
+			errors: issuesToFormErrors(parsed.error.issues, (p) => p.split('.')[0] ?? p, WORDS)
+		};
+	}
+	const data = parsed.data;
+	// The finger-width part waits for help first, or for a healed wound.
+	if (isUrgent(data.symptoms) || data.woundHealed === false) data.sites = null;
+	return { ok: true, values, data };
+}
