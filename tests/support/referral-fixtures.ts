@@ -5,6 +5,7 @@ import type { Site, SiteMeasure } from '../../src/lib/domain/sites';
 import type { Actor, MemberRole, OrganisationKind } from '../../src/lib/server/actor';
 import type { AuditAction } from '../../src/lib/server/audit';
 import { buildScreeningRecord } from '../../src/lib/server/clients/screening-record';
+import { openReferral } from '../../src/lib/server/referrals/service';
 import type { Caller } from '../../src/lib/server/context';
 import { db } from '../../src/lib/server/db';
 import {
@@ -288,3 +289,22 @@ export async function problemOf(work: Promise<unknown>) {
 	}
 	throw new Error('expected a problem, the service answered');
 }
+
+/** A client of the studio with two screenings a month apart (invented widths). */
+export async function clientWithHistory(studio: Org): Promise<ClientPerson> {
+	const client = await makeClient(studio);
+	await addScreening(client.clientId, new Date('2025-03-01T10:00:00Z'), [2, 2.5, 2]);
+	await addScreening(client.clientId, new Date('2025-04-01T10:00:00Z'), [2.5, 3, 2]);
+	return client;
+}
+
+/** The instructor's draft referral of the client to a clinic (an invented reason). */
+export const draftReferral = (instructor: Person, client: ClientPerson, clinicId: string) =>
+	openReferral(instructor.caller, {
+		clientId: client.clientId,
+		clinicId,
+		physioId: null,
+		reason: 'Three finger widths at the navel with doming (invented).',
+		urgency: 'soon',
+		redFlags: ['pelvic_heaviness']
+	});
