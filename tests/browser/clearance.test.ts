@@ -157,3 +157,32 @@ test('physio assesses and clears; the instructor sees the card; the client reads
 	await expectAccessible(client);
 	await client.screenshot({ path: 'test-results/clearance-client-390.png', fullPage: true });
 });
+
+test('an assessment after a screening that said refer takes over from it; each reads in its own words', async ({
+	browser
+}) => {
+	// Demo (src/lib/server/demo/clearances.ts): Freya Castellan's latest screening said refer,
+	// and Dr Ilse Marchetti set her clearance two weeks after it.
+	const instructor = await personPage(browser, INSTRUCTOR, 390);
+	await instructor.goto('/clients?search=Freya');
+	await instructor.getByRole('link', { name: 'Freya Castellan' }).first().click();
+	const since = instructor.getByRole('region', { name: 'Assessed since her latest screening' });
+	await expect(since).toContainText('set her clearance on');
+	await expect(instructor.getByRole('button', { name: 'Open a referral' })).toHaveCount(0);
+	await expect(since.getByRole('button', { name: 'Refer her again' })).toBeVisible();
+	// Who set the clearance and when is said once, not again under every movement.
+	const card = instructor.getByRole('region', { name: 'Movement clearance' });
+	await expect(card).toContainText('Set by Dr Ilse Marchetti');
+	await expect(card.getByText(/Cleared by Dr Ilse Marchetti/)).toHaveCount(0);
+	await expectAccessible(instructor);
+
+	// Bea Sorensen (client2) has no clearance: her studio's cautions are addressed to her, with
+	// the day written out.
+	const client = await personPage(browser, 'client2@client.example', 390);
+	await client.goto('/my-record');
+	const caution = client.getByRole('region', {
+		name: 'Your studio’s caution until a physiotherapist has seen you'
+	});
+	await expect(caution).toContainText(/Your screening on \d{1,2} [A-Z][a-z]{2} \d{4} calls/);
+	await expect(caution).not.toContainText(/\b(she|her)\b|\d{4}-\d{2}-\d{2}/);
+});

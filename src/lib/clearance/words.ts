@@ -1,4 +1,5 @@
 import type { EffectiveLevel, MovementCategory } from '$lib/domain/movement';
+import { formatDate } from '$lib/dates';
 import type { ClearanceView } from './types';
 
 // The words each screen uses for clearances: the instructor's, and the client's plain ones.
@@ -71,3 +72,28 @@ export const CLIENT_LEVEL_WORDS: Record<EffectiveLevel, string> = {
 	hold: 'Not yet — wait for now',
 	no_limit: 'Nothing noted'
 };
+
+/** Calendar days written out ("18 Nov 2026") wherever a reason names one as 2026-11-18. */
+export function readableDays(text: string): string {
+	return text.replace(/\b(\d{4}-\d{2}-\d{2})\b/g, (iso) => formatDate(iso));
+}
+
+// The reasons are written for the studio ("until she has been assessed"); the client reads
+// the same reason addressed to her. Longest phrases first, so "that she was seen" is not
+// half-rewritten by "she".
+const TO_CLIENT: Array<[RegExp, string]> = [
+	[/\bthat she was seen\b/g, 'that you were seen'],
+	[/\bwhether she is\b/g, 'whether you are'],
+	[/\buntil she has been\b/g, 'until you have been'],
+	[/\b(cleared|assessed|seen|clears) her\b/g, '$1 you'],
+	[/\bHer\b/g, 'Your'],
+	[/\bher\b/g, 'your']
+];
+
+/** A reason from the movement limits, said to the client herself, with its days written out. */
+export function reasonForClient(reason: string): string {
+	return TO_CLIENT.reduce(
+		(text, [pattern, words]) => text.replace(pattern, words),
+		readableDays(reason)
+	);
+}
