@@ -175,3 +175,24 @@ test('instructor drafts, client consents from the e-mail, instructor sends, phys
 	await expect(instructor.locator('[data-state="withdrawn"]')).toBeVisible();
 	await expect(instructor.getByText('“consent withdrawn”')).toBeVisible();
 });
+
+test('on the studio’s side of a referral, what the clinic sent back comes before withdrawing', async ({
+	page
+}) => {
+	// Demo: Maya Okonjo's referral, accepted by Fernbank Pelvic Health.
+	await signIn(page, INSTRUCTOR);
+	await page.goto('/referrals');
+	await page.getByRole('link', { name: 'Maya Okonjo' }).first().click();
+	const documents = page.getByRole('heading', { name: 'Documents', level: 2 });
+	const withdraw = page.getByRole('heading', { name: 'Withdraw this referral' });
+	await expect(withdraw).toBeVisible();
+	const [docsBox, withdrawBox] = await Promise.all([
+		documents.boundingBox(),
+		withdraw.boundingBox()
+	]);
+	expect(docsBox!.y).toBeLessThan(withdrawBox!.y);
+	// Withdrawing is her only step here, so nothing else leads the page.
+	await expect(page.getByRole('heading', { name: 'What you can do' })).toHaveCount(0);
+	await expect(page.getByRole('button', { name: 'Withdraw referral' })).toBeVisible();
+	await expectAccessible(page);
+});

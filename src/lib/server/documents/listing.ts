@@ -1,4 +1,4 @@
-import { and, asc, eq, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import { recordAccess } from '../audit';
 import { sharingState } from '../consents/grants';
@@ -112,7 +112,8 @@ export async function getDocumentPanel(caller: Caller, referralId: string): Prom
 				.from(documents)
 				.leftJoin(users, eq(users.id, documents.uploadedBy))
 				.where(visibleTo(side, referralId))
-				.orderBy(asc(documents.uploadedAt), asc(documents.id))
+				// Newest first on the page, like every list a person reads.
+				.orderBy(desc(documents.uploadedAt), desc(documents.id))
 		: [];
 	const decision = decideUpload(caller.actor, row);
 	let uploadNote: string | null = null;

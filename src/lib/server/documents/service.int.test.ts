@@ -163,6 +163,9 @@ describe('sharing with the studio', () => {
 		const panel = await getDocumentPanel(instructor.caller, setup.referralId);
 		expect(panel.items.map((i) => i.id)).toEqual([shared]);
 		expect(panel.canUpload).toBe(false);
+		// The page lists the newest upload first (the clinic notes came second).
+		const clinicPanel = await getDocumentPanel(physio.caller, setup.referralId);
+		expect(clinicPanel.items.map((i) => i.id)).toEqual([clinicOnly, shared]);
 	});
 
 	it('pages the list with a cursor', async () => {
