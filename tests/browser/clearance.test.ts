@@ -2,6 +2,7 @@ import type { Browser, Page } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
 import { expect, test } from './support/test';
 import { expectAccessible } from './a11y';
+import { seedLindenRowClient } from './support/self-care';
 import { signIn, sql } from './support/signin';
 
 // The clearance loop: the physiotherapist records an assessment on an accepted referral and
@@ -20,25 +21,14 @@ async function personPage(browser: Browser, email: string, width = 1280): Promis
 }
 
 async function seedCase(email: string, name: string) {
-	const [user] = (await sql<{ id: string }>(
-		`insert into users (email, name) values ($1, $2) returning id`,
-		[email, name]
-	)) as Array<{ id: string }>;
-	const [client] = (await sql<{ id: string }>(
-		`insert into clients (organisation_id, user_id, name, email, stage, birth_date, delivery,
-			postnatal_check_on, postnatal_cleared, intake_consent_at, intake_consent_method)
-		 select id, $1, $2, $3, 'postpartum', (now() - interval '20 weeks')::date, 'vaginal',
-			(now() - interval '14 weeks')::date, true, now() - interval '12 weeks', 'in_person'
-		 from organisations where name = 'Linden Row Studio' returning id`,
-		[user!.id, name, email]
-	)) as Array<{ id: string }>;
+	const { userId, clientId } = await seedLindenRowClient(email, name);
 	await sql(
 		`insert into consents (client_id, studio_id, clinic_id, scopes, starts_at, given_by)
 		 select $1, s.id, c.id, array['referral','screenings','clearance','documents'],
 			now() - interval '2 days', $2
 		 from organisations s, organisations c
 		 where s.name = 'Linden Row Studio' and c.name = 'Fernbank Pelvic Health'`,
-		[client!.id, user!.id]
+		[clientId, userId]
 	);
 	const [referral] = (await sql<{ id: string }>(
 		`insert into referrals (client_id, studio_id, clinic_id, physio_id, created_by, reason,
@@ -48,9 +38,9 @@ async function seedCase(email: string, name: string) {
 		 from organisations s, organisations c, users p, users i
 		 where s.name = 'Linden Row Studio' and c.name = 'Fernbank Pelvic Health'
 			and p.email = $2 and i.email = $3 returning id`,
-		[client!.id, PHYSIO, INSTRUCTOR]
+		[clientId, PHYSIO, INSTRUCTOR]
 	)) as Array<{ id: string }>;
-	return { clientId: client!.id, referralId: referral!.id };
+	return { clientId, referralId: referral!.id };
 }
 
 test('physio assesses and clears; the instructor sees the card; the client reads it plainly', async ({

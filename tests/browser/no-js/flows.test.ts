@@ -1,5 +1,6 @@
-import { expect, test, type Page } from '@playwright/test';
-import { countMail, forgetSignInRequests, linkIn, sql, waitForNewMail } from '../support/signin';
+import { expect, test } from '@playwright/test';
+import { sql } from '../support/signin';
+import { signInWithoutScript } from '../support/signin-no-js';
 
 // The main forms with JavaScript switched off (the `no-js` project): every one is a plain
 // HTML form that the server answers, so a person whose browser runs no script — or runs it
@@ -23,22 +24,6 @@ test.beforeEach(async ({ page }) => {
 	await page.waitForLoadState('networkidle');
 	await expect(page.locator('html[data-hydrated]')).toHaveCount(0);
 });
-
-async function signInWithoutScript(page: Page, email: string): Promise<void> {
-	await forgetSignInRequests(email);
-	const seen = await countMail(email);
-	await page.goto('/signin');
-	await page.getByLabel('E-mail address').fill(email);
-	await page.getByRole('button', { name: 'Send me a sign-in link' }).click();
-	await expect(page).toHaveURL(/\/signin\/sent$/);
-	const mail = await waitForNewMail(email, 'Your Seamwell sign-in link', seen);
-	await page.goto(linkIn(mail, '/signin/confirm'));
-	await page.getByRole('button', { name: 'Sign in to Seamwell' }).click();
-	await page.waitForURL((url) => !url.pathname.startsWith('/signin'));
-	await expect(
-		page.getByRole('button', { name: 'Sign out', includeHidden: true }).first()
-	).toBeAttached();
-}
 
 test('an instructor signs in, adds and screens a client, refers her and withdraws the referral', async ({
 	page

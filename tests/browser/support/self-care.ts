@@ -1,11 +1,14 @@
 import { sql } from './signin';
 
 /**
- * A client of Linden Row Studio who signs in herself, 20 weeks after a vaginal birth, cleared
- * at her postnatal check (so the finger-width part of the self-check is offered), with a home
- * practice of three exercises. Invented for the tests; returns her client id.
+ * A client of Linden Row Studio who signs in herself: 20 weeks after a vaginal birth, cleared
+ * at her postnatal check (so the finger-width part of the self-check is offered) and with her
+ * intake consent. Invented for the tests.
  */
-export async function seedSelfCareClient(email: string, name: string): Promise<string> {
+export async function seedLindenRowClient(
+	email: string,
+	name: string
+): Promise<{ userId: string; clientId: string }> {
 	const [user] = (await sql<{ id: string }>(
 		`insert into users (email, name) values ($1, $2) returning id`,
 		[email, name]
@@ -18,11 +21,17 @@ export async function seedSelfCareClient(email: string, name: string): Promise<s
 		 from organisations where name = 'Linden Row Studio' returning id`,
 		[user!.id, name, email]
 	)) as Array<{ id: string }>;
+	return { userId: user!.id, clientId: client!.id };
+}
+
+/** The same client with a home practice of three exercises; returns her client id. */
+export async function seedSelfCareClient(email: string, name: string): Promise<string> {
+	const { clientId } = await seedLindenRowClient(email, name);
 	await sql(
 		`insert into home_practices (client_id, organisation_id, items)
 		 select $1, id, $2::jsonb from organisations where name = 'Linden Row Studio'`,
 		[
-			client!.id,
+			clientId,
 			JSON.stringify([
 				{ exerciseId: 'heel-slides', reps: '8 each side', note: null },
 				{ exerciseId: 'bent-knee-fall-outs', reps: '8 each side', note: null },
@@ -30,5 +39,5 @@ export async function seedSelfCareClient(email: string, name: string): Promise<s
 			])
 		]
 	);
-	return client!.id;
+	return clientId;
 }
