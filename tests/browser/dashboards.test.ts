@@ -240,6 +240,10 @@ test('the client dashboard counts her sharing and links to her consents and reco
 	await signIn(page, 'client2@client.example');
 	expect(await countOn(page, 'clinic you share with now')).toBe(1);
 	expect(await countOn(page, 'requests to share, waiting for your answer')).toBe(0);
+	// Her referral (demo: sent to Fernbank, not yet answered), where she stands at a glance.
+	await expect(page.getByTestId('latest-referral')).toHaveText(
+		'Your referral to Fernbank Pelvic Health: sent, waiting for the clinic to answer.'
+	);
 	await expect(page.getByRole('link', { name: 'Open my record' })).toHaveAttribute(
 		'href',
 		'/my-record'
