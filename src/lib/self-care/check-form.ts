@@ -5,6 +5,7 @@ import {
 	listOf,
 	numberOf,
 	textOf,
+	yesNoOf,
 	type FormResult,
 	type FormValues
 } from '../forms';
@@ -34,8 +35,7 @@ export function selfCheckFromForm(
 	takenAt: Date
 ): FormResult<SelfCheckInputData> {
 	const symptoms = listOf(values, 'symptoms');
-	const wound = textOf(values, 'woundHealed');
-	const woundHealed = wound === 'yes' ? true : wound === 'no' ? false : wound === '' ? null : wound;
+	const woundHealed = yesNoOf(values, 'woundHealed') ?? null;
 	const widths = SITES.map((site) => numberOf(values, siteField(site, 'width')));
 	const given = widths.filter((w) => w !== undefined).length;
 	if (given > 0 && given < SITES.length) {

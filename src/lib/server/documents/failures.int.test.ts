@@ -68,10 +68,9 @@ beforeAll(async () => {
 });
 
 const acceptedReferral = (state?: 'accepted' | 'sent') => fixtureReferral(cast, state);
-type Setup = ReferralSetup;
 
 describe('hostile files', () => {
-	let setup: Setup;
+	let setup: ReferralSetup;
 	beforeAll(async () => {
 		setup = await acceptedReferral();
 	});

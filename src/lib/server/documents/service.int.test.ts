@@ -49,7 +49,6 @@ beforeAll(async () => {
 });
 
 const acceptedReferral = (state?: 'accepted' | 'sent') => fixtureReferral(cast, state);
-type Setup = ReferralSetup;
 
 describe('uploading', () => {
 	it('stores the file under a key the server chose, its SHA-256 intact, with a row and a log entry', async () => {
@@ -131,7 +130,7 @@ describe('uploading', () => {
 });
 
 describe('sharing with the studio', () => {
-	let setup: Setup;
+	let setup: ReferralSetup;
 	let shared: string;
 	let clinicOnly: string;
 	beforeAll(async () => {
