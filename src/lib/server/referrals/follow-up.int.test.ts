@@ -111,6 +111,11 @@ describe('her referrals, as her studio and she herself follow them', () => {
 
 		const herView = await listClientReferrals(client.caller, client.clientId);
 		expect(herView.map((r) => r.id).sort()).toEqual([sent, accepted].sort());
+		// Her Home shows only the newest, and logs only that one as read.
+		const before = (await logRows(client.userId, 'referral.listed')).length;
+		const newest = await listClientReferrals(client.caller, client.clientId, { limit: 1 });
+		expect(newest.map((r) => r.id)).toEqual([accepted]);
+		expect((await logRows(client.userId, 'referral.listed')).length).toBe(before + 1);
 
 		const stranger = await makeMember(await makeOrg('studio', 'elsewhere'), 'instructor');
 		expect(await statusOf(listClientReferrals(stranger.caller, client.clientId))).toBe(404);

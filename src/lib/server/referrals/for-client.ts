@@ -27,11 +27,12 @@ export interface ClientReferral {
 
 /**
  * Policy: an instructor of her studio, or the client herself (404 for anyone else). Audit:
- * referral.listed, one row per referral shown.
+ * referral.listed, one row per referral shown (`limit`: the newest ones only).
  */
 export async function listClientReferrals(
 	caller: Caller,
-	clientId: string
+	clientId: string,
+	{ limit }: { limit?: number } = {}
 ): Promise<ClientReferral[]> {
 	const { actor } = caller;
 	const [client] = await db()
@@ -72,7 +73,8 @@ export async function listClientReferrals(
 					...(asStudio ? [] : [inArray(referrals.state, [...CLINIC_VISIBLE_STATES])])
 				)
 			)
-			.orderBy(desc(referrals.createdAt));
+			.orderBy(desc(referrals.createdAt))
+			.limit(limit ?? Number.MAX_SAFE_INTEGER);
 		const ids = rows.map((r) => r.id);
 		const notes = ids.length
 			? await tx

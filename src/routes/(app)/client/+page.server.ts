@@ -11,8 +11,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	// Until her studio links her record she has no consents to count.
 	const sharing = summary.clientId ? await forPage(countOwnSharing(caller)) : null;
 	// Where her latest referral stands, so she need not open her record to find out.
-	const referrals = summary.clientId
-		? await forPage(listClientReferrals(caller, summary.clientId))
+	const [latestReferral] = summary.clientId
+		? await forPage(listClientReferrals(caller, summary.clientId, { limit: 1 }))
 		: [];
-	return { summary, sharing, latestReferral: referrals[0] ?? null };
+	return { summary, sharing, latestReferral: latestReferral ?? null };
 };
