@@ -1,4 +1,5 @@
 import { briefError } from './db/errors';
+import { sharedTransactions } from './db/scope';
 
 // The one way Seamwell runs work in the background (the log sealer, the document sweeper, the
 // review reminders, the outbox worker): one run at a time, again after `everyMs` (or sooner,
@@ -48,23 +49,26 @@ export function startLoop(options: LoopOptions): Loop {
 			return;
 		}
 		clearTimeout(timer);
-		running = (async () => {
-			do {
-				again = false;
-				let next = everyMs;
-				try {
-					next = (await options.run()) ?? everyMs;
-					if (failing) log(`${name}: ${recovered}`);
-					failing = false;
-				} catch (error) {
-					if (!failing) log(`${name}: ${briefError(error)}`);
-					failing = true;
-				}
-				if (!again) schedule(next);
-			} while (again && !stopped);
-		})().finally(() => {
-			running = null;
-		});
+		// A run woken from inside a page's shared transaction must not join it (db/scope.ts).
+		running = sharedTransactions
+			.exit(async () => {
+				do {
+					again = false;
+					let next = everyMs;
+					try {
+						next = (await options.run()) ?? everyMs;
+						if (failing) log(`${name}: ${recovered}`);
+						failing = false;
+					} catch (error) {
+						if (!failing) log(`${name}: ${briefError(error)}`);
+						failing = true;
+					}
+					if (!again) schedule(next);
+				} while (again && !stopped);
+			})
+			.finally(() => {
+				running = null;
+			});
 	}
 
 	if (options.firstInMs) schedule(options.firstInMs);

@@ -1,5 +1,6 @@
 import { inArray, sql } from 'drizzle-orm';
-import { db, type Executor } from '../db';
+import { ownDb, type Executor } from '../db';
+import { sharedTransaction } from '../db/scope';
 import { accessLog, subjectKeys } from '../db/schema';
 import { AUDIT_ACTIONS, AUDIT_OUTCOMES, type AuditAction, type AuditOutcome } from './actions';
 
@@ -66,6 +67,43 @@ export async function recordAccesses(
 			throw new Error(`unknown access-log outcome ${event.outcome}`);
 		}
 	}
+	const shared = sharedTransaction();
+	if (shared && executor === shared.executor) {
+		// A page's shared transaction writes every service's rows in one insert before it
+		// commits (see `readAsOne`): same rows, same transaction, one statement.
+		const pending = (pendingRows.get(shared) ?? []).concat({ context, events });
+		if (!pendingRows.has(shared)) {
+			shared.beforeCommit.push(() => writePending(shared.tx, pendingRows.get(shared) ?? []));
+		}
+		pendingRows.set(shared, pending);
+		return;
+	}
+	await insertAccesses(executor, context, events);
+}
+
+/** Rows recorded in a page's shared transaction, not yet written. */
+const pendingRows = new WeakMap<
+	object,
+	Array<{ context: AccessContext; events: readonly AccessEvent[] }>
+>();
+
+/** One insert per request context (a page's rows all share one). */
+async function writePending(
+	executor: Executor,
+	pending: ReadonlyArray<{ context: AccessContext; events: readonly AccessEvent[] }>
+): Promise<void> {
+	const byContext = new Map<AccessContext, AccessEvent[]>();
+	for (const { context, events } of pending) {
+		byContext.set(context, [...(byContext.get(context) ?? []), ...events]);
+	}
+	for (const [context, events] of byContext) await insertAccesses(executor, context, events);
+}
+
+async function insertAccesses(
+	executor: Executor,
+	context: AccessContext,
+	events: readonly AccessEvent[]
+): Promise<void> {
 	const keys = await subjectKeysFor(
 		executor,
 		events.flatMap((e) => (e.clientId ? [e.clientId] : []))
@@ -123,7 +161,7 @@ export async function recordRefusal(
 	context: AccessContext,
 	event: Omit<AccessEvent, 'outcome'> & { outcome?: Exclude<AuditOutcome, 'success'> }
 ): Promise<void> {
-	await db().transaction((tx) =>
+	await ownDb().transaction((tx) =>
 		recordAccess(tx, context, { ...event, outcome: event.outcome ?? 'refused' })
 	);
 }

@@ -6,6 +6,7 @@ import { recordAccess } from '../audit';
 import { sharingState } from '../consents/grants';
 import { config } from '../config';
 import { refuse, type Caller } from '../context';
+import { clientRow } from '../clients/shared';
 import { db, type Executor } from '../db';
 import {
 	clearanceReviewRequests,
@@ -36,10 +37,7 @@ export type { ClearanceVersion, ClearanceView };
 export const todayUtc = (now = new Date()) => now.toISOString().slice(0, 10);
 
 async function clientScope(id: string) {
-	const [client] = await db()
-		.select({ id: clients.id, organisationId: clients.organisationId })
-		.from(clients)
-		.where(eq(clients.id, id));
+	const client = await clientRow(id);
 	if (!client) return { client: undefined, referrals: [] };
 	const rows = await db()
 		.select()

@@ -11,6 +11,7 @@ import { SCREENING_DUE_WEEKS, type ClientListFilter } from '$lib/clients/schemas
 import { recordRefusal, type AuditAction } from '../audit';
 import type { Caller } from '../context';
 import { db } from '../db';
+import { readOnce } from '../db/scope';
 import { clients, screenings } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
 import { cursorKey } from '../http/schemas';
@@ -129,13 +130,21 @@ export function trendBySite(
  * Loads a client record the caller may see (or change). Anything else — no such record, or
  * one of another studio — is logged as refused and answers 404, the same either way.
  */
+/** Her row, read once per page load when several services of the page check it. */
+export async function clientRow(id: string): Promise<ClientRow | undefined> {
+	return readOnce(`client:${id}`, async () => {
+		const [row] = await db().select().from(clients).where(eq(clients.id, id));
+		return row;
+	});
+}
+
 export async function clientFor(
 	caller: Caller,
 	id: string,
 	action: AuditAction,
 	rule: typeof mayReadClient
 ): Promise<ClientRow> {
-	const [row] = await db().select().from(clients).where(eq(clients.id, id));
+	const row = await clientRow(id);
 	if (!row || !rule(caller.actor, row)) {
 		await recordRefusal(caller.access, {
 			action,

@@ -2,6 +2,7 @@ import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import { config } from '../config';
 import * as schema from './schema';
+import { sharedTransaction } from './scope';
 
 export type Database = NodePgDatabase<typeof schema> & { $client: pg.Pool };
 export type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
@@ -15,6 +16,14 @@ let instance: Database | undefined;
  * modules) needs no database.
  */
 export function db(): Database {
+	return sharedTransaction()?.executor ?? ownDb();
+}
+
+/**
+ * The pool itself, even inside a page's shared transaction: for work that must commit on its
+ * own whatever happens to the page's (a refusal's access-log row).
+ */
+export function ownDb(): Database {
 	if (!instance) instance = createDatabase(config().DATABASE_URL);
 	return instance;
 }

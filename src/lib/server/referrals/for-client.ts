@@ -3,8 +3,9 @@ import { alias } from 'drizzle-orm/pg-core';
 import { CLINIC_VISIBLE_STATES, type ReferralState } from '../../domain/referral';
 import { recordSuccesses } from '../audit';
 import { refuse, type Caller } from '../context';
+import { clientRow } from '../clients/shared';
 import { db } from '../db';
-import { clients, organisations, referralEvents, referrals, users } from '../db/schema';
+import { organisations, referralEvents, referrals, users } from '../db/schema';
 import { notFound } from '../http/problem';
 import { instructorStudioIds } from '../scope';
 
@@ -35,10 +36,7 @@ export async function listClientReferrals(
 	{ limit }: { limit?: number } = {}
 ): Promise<ClientReferral[]> {
 	const { actor } = caller;
-	const [client] = await db()
-		.select({ id: clients.id, organisationId: clients.organisationId })
-		.from(clients)
-		.where(eq(clients.id, clientId));
+	const client = await clientRow(clientId);
 	const asStudio =
 		client !== undefined && instructorStudioIds(actor).includes(client.organisationId);
 	const asHerself = client !== undefined && actor.clientId === client.id;

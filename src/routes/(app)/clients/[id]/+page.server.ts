@@ -15,6 +15,7 @@ import { listClientReferrals } from '$lib/server/referrals/for-client';
 import { readClearance } from '$lib/server/clearance/clearance';
 import { requirePageCaller } from '$lib/server/context';
 import { forPage, pageId } from '$lib/server/http/page';
+import { readAsOne } from '$lib/server/page-read';
 import { clientSelfCare, setHomePractice } from '$lib/server/self-care/service';
 import { homePracticeSchema } from '$lib/self-care/schemas';
 import { ProblemError } from '$lib/server/http/problem';
@@ -24,33 +25,27 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
 	const id = pageId(params.id);
-	const client = await forPage(getClient(caller, id));
-	const [history, referrals, clearance] = await Promise.all([
-		forPage(getScreeningHistory(caller, id)),
-		forPage(listClientReferrals(caller, id)),
-		forPage(readClearance(caller, id))
-	]);
-	// Her home practice and, while she shares them, her self-checks: instructors of her studio.
-	const selfCare = mayWriteClient(caller.actor, client)
-		? await forPage(clientSelfCare(caller, id))
-		: null;
+	// Five services, one transaction and one access-log insert (see readAsOne).
+	const read = await forPage(
+		readAsOne(async () => {
+			const client = await getClient(caller, id);
+			const history = await getScreeningHistory(caller, id);
+			const referrals = await listClientReferrals(caller, id);
+			const clearance = await readClearance(caller, id);
+			// Her home practice and, while she shares them, her self-checks: her studio's instructors.
+			const mayWrite = mayWriteClient(caller.actor, client);
+			const selfCare = mayWrite ? await clientSelfCare(caller, id) : null;
+			// Her own factor for the table's mm estimates (display only, never a criterion).
+			const fingerFactor = await examinerFactor(caller);
+			return { client, history, referrals, clearance, selfCare, mayWrite, fingerFactor };
+		})
+	);
 	const charts = SITES.map((site) => ({
 		site,
 		title: siteLabelCapitalised(site),
-		chart: siteChartGeometry(history.series[site])
+		chart: siteChartGeometry(read.history.series[site])
 	}));
-	return {
-		client,
-		history,
-		referrals,
-		clearance,
-		charts,
-		selfCare,
-		combined: combinedChartGeometry(history.series),
-		mayWrite: mayWriteClient(caller.actor, client),
-		// Her own factor for the table's mm estimates (display only, never a criterion).
-		fingerFactor: await examinerFactor(caller)
-	};
+	return { ...read, charts, combined: combinedChartGeometry(read.history.series) };
 };
 
 export const actions: Actions = {

@@ -3,13 +3,13 @@ import { z } from 'zod';
 import { chartSeries, SITES } from '$lib/domain';
 import { transitionFromForm } from '$lib/referrals/form';
 import { consentRequestSchema } from '$lib/referrals/schemas';
-import type { ReferralScreening } from '$lib/referrals/types';
 import { failForm, failFromProblem } from '$lib/server/http/form';
 import { siteChartGeometry } from '$lib/server/clients/chart';
 import { requestConsent } from '$lib/server/consents/service';
 import { requirePageCaller } from '$lib/server/context';
 import { formDone } from '$lib/server/http/form';
 import { forPage, pageId } from '$lib/server/http/page';
+import { readAsOne } from '$lib/server/page-read';
 import { documentPatchSchema, readUploadForm } from '$lib/server/documents/schemas';
 import { getDocumentPanel, updateDocument, uploadDocument } from '$lib/server/documents/service';
 import { ProblemError } from '$lib/server/http/problem';
@@ -30,24 +30,28 @@ const DOCUMENTS = { form: 'documents' } as const;
 export const load: PageServerLoad = async ({ locals, url, params }) => {
 	const caller = requirePageCaller(locals, url);
 	const id = pageId(params.id);
-	const referral = await forPage(getReferral(caller, id));
-	// The clinic sees her live history only while her consent lasts; the page asks only then,
-	// so a plain view after sharing ended leaves no refusal in the log.
-	let live: ReferralScreening[] | null = null;
-	if (referral.viewer === 'clinic' && referral.sharing.screeningsLive) {
-		live = (await listLiveScreenings(caller, id, { limit: 100 })).items;
-	}
+	// Its services in one transaction with one access-log insert (see readAsOne).
+	const read = await forPage(
+		readAsOne(async () => {
+			const referral = await getReferral(caller, id);
+			// The clinic sees her live history only while her consent lasts; the page asks only
+			// then, so a plain view after sharing ended leaves no refusal in the log.
+			const live =
+				referral.viewer === 'clinic' && referral.sharing.screeningsLive
+					? (await listLiveScreenings(caller, id, { limit: 100 })).items
+					: null;
+			const documents = await getDocumentPanel(caller, id);
+			// The clinic's own findings and the client's clearance, for its physiotherapists.
+			const clinicSide = referral.viewer === 'clinic' && referral.state !== 'draft';
+			const assessment = clinicSide ? await readAssessment(caller, id) : null;
+			const clearance =
+				clinicSide && referral.clientId ? await readClearance(caller, referral.clientId) : null;
+			return { referral, live, documents, assessment, clearance, clinicSide };
+		})
+	);
+	const { referral, live, clinicSide } = read;
 	const series = chartSeries(live ?? referral.screenings);
 	const charts = SITES.map((site) => ({ site, chart: siteChartGeometry(series[site]) }));
-	const documents = await getDocumentPanel(caller, id);
-	// The clinic's own findings and the client's clearance, for the clinic's physiotherapists.
-	const clinicSide = referral.viewer === 'clinic' && referral.state !== 'draft';
-	const [assessment, clearance] = clinicSide
-		? await Promise.all([
-				readAssessment(caller, id),
-				referral.clientId ? forPage(readClearance(caller, referral.clientId)) : null
-			])
-		: [null, null];
 	const assigned = referral.physioId === caller.actor.userId;
 	// A referral whose studio erased the client's record is kept to be read, not worked on.
 	const mayAct =
@@ -59,9 +63,9 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 		referral,
 		live,
 		charts,
-		documents,
-		assessment,
-		clearance,
+		documents: read.documents,
+		assessment: read.assessment,
+		clearance: read.clearance,
 		mayAssess: mayAct && referral.sharing.status === 'active',
 		mayClear: mayAct
 	};
