@@ -1,4 +1,9 @@
-import { fingersToMmEstimate, type Outcome, type ReferTo, type TrendDirection } from '$lib/domain';
+// Straight from each module, not the `$lib/domain` barrel: pages load this file, and the barrel
+// would bring the criteria and sources tables into their JavaScript.
+import { fingersToMm } from '$lib/domain/conversion';
+import type { ReferTo } from '$lib/domain/red-flags';
+import type { Outcome } from '$lib/domain/screening';
+import type { TrendDirection } from '$lib/domain/trend';
 import { formatDate } from '$lib/dates';
 
 // Words the screens use for stored codes, in one place.
@@ -58,10 +63,9 @@ export { formatDate };
  */
 /** "≈ 30 mm": in a table whose note says once how the estimate is made. */
 export function formatMmApprox(fingers: number, mmPerFinger: number): string {
-	return `≈ ${Math.round(fingersToMmEstimate(fingers, mmPerFinger).mm)} mm`;
+	return `≈ ${Math.round(fingersToMm(fingers, mmPerFinger))} mm`;
 }
 
 export function formatMmEstimate(fingers: number, mmPerFinger: number): string {
-	const { mm, factor } = fingersToMmEstimate(fingers, mmPerFinger);
-	return `≈ ${Math.round(mm)} mm, estimate at ${factor} mm per finger`;
+	return `≈ ${Math.round(fingersToMm(fingers, mmPerFinger))} mm, estimate at ${mmPerFinger} mm per finger`;
 }

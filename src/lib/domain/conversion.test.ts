@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_MM_PER_FINGER, fingersToMmEstimate, mmToFingersEstimate } from './conversion';
+import {
+	DEFAULT_MM_PER_FINGER,
+	fingersToMm,
+	fingersToMmEstimate,
+	mmToFingersEstimate
+} from './conversion';
 
 describe('finger-width conversion', () => {
 	it('defaults to 15 mm per finger width', () => {
@@ -41,12 +46,21 @@ describe('finger-width conversion', () => {
 		expect(mmToFingersEstimate(mm, 16).fingers).toBe(3.5);
 	});
 
+	it('gives the millimetre figure alone, the same as the labelled estimate', () => {
+		// Rett MT et al. 2009; Pitangui ACR et al. — one finger width ≈ 1.5 cm
+		expect(fingersToMm(2)).toBe(30);
+		// common practice, no source — the examiner's own factor
+		expect(fingersToMm(2.5, 18)).toBe(fingersToMmEstimate(2.5, 18).mm);
+	});
+
 	it.each([0, -15, Number.NaN])('refuses a factor of %s', (factor) => {
+		expect(() => fingersToMm(1, factor)).toThrow(RangeError);
 		expect(() => fingersToMmEstimate(1, factor)).toThrow(RangeError);
 		expect(() => mmToFingersEstimate(10, factor)).toThrow(RangeError);
 	});
 
 	it('refuses negative widths', () => {
+		expect(() => fingersToMm(-1)).toThrow(RangeError);
 		expect(() => fingersToMmEstimate(-1)).toThrow(RangeError);
 		expect(() => mmToFingersEstimate(-1)).toThrow(RangeError);
 	});

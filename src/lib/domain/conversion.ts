@@ -42,14 +42,19 @@ function factorSource(mmPerFinger: number): string {
 		: `Examiner’s own factor of ${mmPerFinger} mm per finger width (approximate)`;
 }
 
+/** The millimetre figure alone, for a screen that states the factor and source once. */
+export function fingersToMm(fingers: number, mmPerFinger: number = DEFAULT_MM_PER_FINGER): number {
+	assertNonNegative(fingers, 'fingers');
+	assertFactor(mmPerFinger);
+	return fingers * mmPerFinger;
+}
+
 export function fingersToMmEstimate(
 	fingers: number,
 	mmPerFinger: number = DEFAULT_MM_PER_FINGER
 ): MmEstimate {
-	assertNonNegative(fingers, 'fingers');
-	assertFactor(mmPerFinger);
 	return {
-		mm: fingers * mmPerFinger,
+		mm: fingersToMm(fingers, mmPerFinger),
 		estimate: true,
 		factor: mmPerFinger,
 		source: factorSource(mmPerFinger)
