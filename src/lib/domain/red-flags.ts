@@ -153,7 +153,9 @@ export const RED_FLAG_REFER_TO: Record<RedFlag, ReferTo> = {
 /** Flags that make a midline bulge count as painful. */
 export const PAIN_FLAGS: readonly RedFlag[] = ['pain_on_effort', 'pelvic_pain', 'back_pain'];
 
-export const RED_FLAG_SOURCES: Record<RedFlag, string> = {
+// Built in a call marked pure so that a page needing only the labels leaves it out, and the
+// sources table with it: the bundler keeps every top-level read of a SOURCES field.
+export const RED_FLAG_SOURCES: Record<RedFlag, string> = /* @__PURE__ */ (() => ({
 	pelvic_heaviness: SOURCES.goom2019RedFlags,
 	leakage: SOURCES.goom2019RedFlags,
 	midline_bulge: SOURCES.goom2019RedFlags,
@@ -176,7 +178,7 @@ export const RED_FLAG_SOURCES: Record<RedFlag, string> = {
 	heavy_bleeding: SOURCES.niceCg37LifeThreatening,
 	reduced_fetal_movements: SOURCES.fetalMovementsPractice,
 	stuck_bulge: SOURCES.stuckBulgePractice
-};
+}))();
 
 export function isRedFlag(value: string): value is RedFlag {
 	return (RED_FLAGS as readonly string[]).includes(value);
