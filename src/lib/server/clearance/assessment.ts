@@ -9,6 +9,7 @@ import { db } from '../db';
 import { assessments, referrals, users } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
 import { applyTransition } from '../referrals/service';
+import { referralRow } from '../referrals/shared';
 import { compareAssessments, type AssessmentComparisons } from './comparisons';
 import {
 	ASSESSABLE_STATES,
@@ -32,11 +33,6 @@ export interface AssessmentView {
 	plan: string;
 	recordedBy: { id: string | null; name: string | null };
 	recordedAt: string;
-}
-
-async function referralRow(id: string): Promise<ReferralRow | undefined> {
-	const [row] = await db().select().from(referrals).where(eq(referrals.id, id));
-	return row;
 }
 
 /**

@@ -246,7 +246,7 @@ export async function readClearance(caller: Caller, clientId: string): Promise<C
 				.filter((r) => r.clearance.supersedes)
 				.map((r) => [r.clearance.supersedes!, r.clearance.id])
 		);
-		const [record] = await tx.select().from(clients).where(eq(clients.id, clientId));
+		const record = await clientRow(clientId, tx);
 		const history = await screeningsFor(tx, viewer, theirs, clientId, rows[0]?.clearance);
 		const newest = rows[0];
 		// Her own reports: to her always, to her studio while she shares, never to the clinic.

@@ -10,7 +10,7 @@ import {
 import { SCREENING_DUE_WEEKS, type ClientListFilter } from '$lib/clients/schemas';
 import { recordRefusal, type AuditAction } from '../audit';
 import type { Caller } from '../context';
-import { db } from '../db';
+import { db, type Executor } from '../db';
 import { readOnce } from '../db/scope';
 import { clients, screenings } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
@@ -131,9 +131,12 @@ export function trendBySite(
  * one of another studio — is logged as refused and answers 404, the same either way.
  */
 /** Her row, read once per page load when several services of the page check it. */
-export async function clientRow(id: string): Promise<ClientRow | undefined> {
+export async function clientRow(
+	id: string,
+	executor: Executor = db()
+): Promise<ClientRow | undefined> {
 	return readOnce(`client:${id}`, async () => {
-		const [row] = await db().select().from(clients).where(eq(clients.id, id));
+		const [row] = await executor.select().from(clients).where(eq(clients.id, id));
 		return row;
 	});
 }

@@ -8,6 +8,7 @@ import {
 	type ShareScope
 } from '../../domain/consent';
 import type { Executor } from '../db';
+import { readOnce } from '../db/scope';
 import { consents } from '../db/schema';
 
 // Reading grants for other services' policy checks (referrals now; clearances and documents
@@ -46,7 +47,9 @@ export async function grantsBetween(
 		.orderBy(desc(consents.startsAt));
 	// FOR SHARE holds the grants until the caller's transaction ends: a withdrawal (an UPDATE)
 	// waits for it, and a move that waited behind a withdrawal reads the withdrawn row.
-	return options.lock ? query.for('share') : query;
+	if (options.lock) return query.for('share');
+	// A page's services each check the same pair: one read per page load.
+	return readOnce(`grants:${pair.clientId}:${pair.studioId}:${pair.clinicId}`, async () => query);
 }
 
 export interface SharingState {

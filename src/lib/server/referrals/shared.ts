@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm';
 import { type AuditAction } from '../audit';
 import { refuse, type Caller } from '../context';
 import { db } from '../db';
+import { readOnce } from '../db/scope';
 import { referrals } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
 import { mayReadReferral } from './policy';
@@ -23,6 +24,14 @@ export function heldClientId(row: { clientId: string | null }): string {
 	return row.clientId;
 }
 
+/** A referral's row, read once per page load when several services of the page check it. */
+export function referralRow(id: string): Promise<ReferralRow | undefined> {
+	return readOnce(`referral:${id}`, async () => {
+		const [row] = await db().select().from(referrals).where(eq(referrals.id, id));
+		return row;
+	});
+}
+
 /**
  * A referral the caller may see by `may` (by default: reading it, from either side); anything
  * else is logged as refused and answers 404, so a referral she may not see and one that does
@@ -34,7 +43,7 @@ export async function visibleReferral(
 	action: AuditAction,
 	may: (actor: Caller['actor'], row: ReferralRow) => boolean = mayReadReferral
 ): Promise<ReferralRow> {
-	const [row] = await db().select().from(referrals).where(eq(referrals.id, id));
+	const row = await referralRow(id);
 	if (!row || !may(caller.actor, row)) {
 		return refuse(caller, action, notFound(), { type: 'referral', id }, row?.clientId);
 	}

@@ -12,8 +12,9 @@ import {
 import type { SelfCheckInputData } from '../../self-care/schemas';
 import { recordAccess, recordAccesses, recordSuccesses } from '../audit';
 import { refuse, type Caller } from '../context';
+import { clientRow } from '../clients/shared';
 import { db } from '../db';
-import { clients, organisations, selfChecks, selfCheckSharing } from '../db/schema';
+import { organisations, selfChecks, selfCheckSharing } from '../db/schema';
 import { notFound } from '../http/problem';
 import { mayReadSelfChecks } from './policy';
 import { fieldProblem, isShared, ownClient, todayUtc } from './shared';
@@ -197,7 +198,7 @@ export async function listClientSelfChecks(
 	caller: Caller,
 	clientId: string
 ): Promise<SelfCheckView[]> {
-	const [client] = await db().select().from(clients).where(eq(clients.id, clientId));
+	const client = await clientRow(clientId);
 	const shared = client ? await isShared(db(), client) : false;
 	if (!client || !mayReadSelfChecks(caller.actor, client, shared)) {
 		return refuse(

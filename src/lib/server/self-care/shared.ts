@@ -1,7 +1,8 @@
 import { and, eq } from 'drizzle-orm';
 import { type EffectiveLimits } from '../../domain';
-import { loadEffectiveLimits } from '../clearance/limits';
+import { limitsForRecords } from '../clearance/limits';
 import { refuse, type Caller } from '../context';
+import { clientRow } from '../clients/shared';
 import { db, type Executor } from '../db';
 import { clients, selfCheckSharing } from '../db/schema';
 import { notFound, ProblemError } from '../http/problem';
@@ -61,7 +62,8 @@ export async function limitsFor(
 	client: ClientRow,
 	selfReports: 'all' | 'shared'
 ): Promise<EffectiveLimits> {
-	const limits = await loadEffectiveLimits(tx, [client.id], todayUtc(), { selfReports });
+	// Her row was read before this (its limits version first, then what the limits rest on).
+	const limits = await limitsForRecords(tx, [client], todayUtc(), { selfReports });
 	return limits.get(client.id)!;
 }
 
@@ -71,7 +73,7 @@ export async function managedClient(
 	clientId: string,
 	action: 'home_practice.read' | 'home_practice.set'
 ): Promise<ClientRow> {
-	const [client] = await db().select().from(clients).where(eq(clients.id, clientId));
+	const client = await clientRow(clientId);
 	if (!client || !mayManageHomePractice(caller.actor, client)) {
 		return refuse(caller, action, notFound(), { type: 'client', id: clientId }, client?.id);
 	}
