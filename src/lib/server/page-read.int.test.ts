@@ -94,6 +94,17 @@ describe('readAsOne: one transaction for a page load', () => {
 		expect(rows.map((r) => [r.action, r.outcome])).toEqual([['client.read', 'refused']]);
 	});
 
+	it('answers a burst of refused pages larger than the pool, each refusal recorded', async () => {
+		// Each page holds a connection; a refusal written meanwhile would need a second one, and
+		// more pages than the pool's ten connections would then wait on each other for ever.
+		const stranger = await makeMember(await makeOrg('studio', 'burst'), 'instructor', 'burst');
+		const statuses = await Promise.all(
+			Array.from({ length: 25 }, () => statusOf(readPage(stranger)))
+		);
+		expect(statuses).toEqual(Array(25).fill(404));
+		expect(await logRows(stranger.userId)).toHaveLength(25);
+	});
+
 	it('refuses use of the transaction once the page has ended', async () => {
 		const leaked = await readAsOne(async () => db());
 		expect(() => leaked.select()).toThrow(/already ended/);

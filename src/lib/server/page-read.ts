@@ -7,30 +7,42 @@ import { sharedTransaction, sharedTransactions, type SharedTransaction } from '.
  * transaction and logs its own access, about forty statements in all. Inside `readAsOne` they
  * share one transaction, read the client's row once (`readOnce`), and their access-log rows —
  * the same rows, in the same transaction as the reads — go in one insert just before the
- * commit. A refusal still commits on its own (`recordRefusal` uses the pool), so a page that
- * ends in a 404 leaves its record of the refusal and nothing else.
+ * commit. A refusal still commits on its own, once the shared transaction has ended, so a page
+ * that ends in a 404 leaves its record of the refusal and nothing else.
  *
  * For loads only: call the services one after the other (a load that catches a service's
  * error keeps what that service did, as the shared transaction has no savepoints).
  */
 export async function readAsOne<T>(work: () => Promise<T>): Promise<T> {
 	if (sharedTransaction()) return work();
-	return ownDb().transaction(async (tx) => {
-		const shared: SharedTransaction = {
-			tx,
-			executor: inPlace(tx, () => shared.open),
-			open: true,
-			beforeCommit: [],
-			memo: new Map()
-		};
-		try {
-			const result = await sharedTransactions.run(shared, work);
-			for (const step of shared.beforeCommit) await step();
-			return result;
-		} finally {
-			shared.open = false;
-		}
-	});
+	const afterEnd: Array<() => Promise<void>> = [];
+	let outcome: { ok: true; value: T } | { ok: false; error: unknown };
+	try {
+		const value = await ownDb().transaction(async (tx) => {
+			const shared: SharedTransaction = {
+				tx,
+				executor: inPlace(tx, () => shared.open),
+				open: true,
+				beforeCommit: [],
+				afterEnd,
+				memo: new Map()
+			};
+			try {
+				const result = await sharedTransactions.run(shared, work);
+				for (const step of shared.beforeCommit) await step();
+				return result;
+			} finally {
+				shared.open = false;
+			}
+		});
+		outcome = { ok: true, value };
+	} catch (error) {
+		outcome = { ok: false, error };
+	}
+	// Refusals, once the page's connection is back in the pool (see SharedTransaction).
+	for (const step of afterEnd) await step();
+	if (!outcome.ok) throw outcome.error;
+	return outcome.value;
 }
 
 /**

@@ -161,9 +161,14 @@ export async function recordRefusal(
 	context: AccessContext,
 	event: Omit<AccessEvent, 'outcome'> & { outcome?: Exclude<AuditOutcome, 'success'> }
 ): Promise<void> {
-	await ownDb().transaction((tx) =>
-		recordAccess(tx, context, { ...event, outcome: event.outcome ?? 'refused' })
-	);
+	const write = () =>
+		ownDb().transaction((tx) =>
+			recordAccess(tx, context, { ...event, outcome: event.outcome ?? 'refused' })
+		);
+	// Inside a page's shared transaction: written as soon as it ends (readAsOne waits for it).
+	const shared = sharedTransaction();
+	if (shared) shared.afterEnd.push(write);
+	else await write();
 }
 
 /** The client's random subject key, created on first use. */

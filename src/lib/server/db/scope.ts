@@ -14,6 +14,12 @@ export interface SharedTransaction {
 	open: boolean;
 	/** Work to run in the transaction just before it commits (the access log's one insert). */
 	beforeCommit: Array<() => Promise<void>>;
+	/**
+	 * Work to run once the transaction has ended, committed or not, on a connection of its own:
+	 * refusals. Written meanwhile they would need a second connection while holding the first,
+	 * and a burst of refused pages could take the whole pool and wait on each other for ever.
+	 */
+	afterEnd: Array<() => Promise<void>>;
 	/** Reads done once per page (the client's row the services each check), by key. */
 	memo: Map<string, Promise<unknown>>;
 }
