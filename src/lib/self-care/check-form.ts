@@ -1,4 +1,4 @@
-import { ADVICE_RANK, SYMPTOM_URGENCY, type RedFlag, type SelfCheckSite } from '../domain';
+import type { SelfCheckSite } from '../domain/self-check';
 import { SITES, type Site } from '../domain/sites';
 import {
 	issuesToFormErrors,
@@ -10,19 +10,12 @@ import {
 	type FormValues
 } from '../forms';
 import { selfCheckInputSchema, type SelfCheckInputData } from './schemas';
+import { isUrgent, siteField } from './check-fields';
 
 // The self-check as one plain form (the page without JavaScript): her symptoms, her answer
 // about a caesarean wound, and the three places, each left "Not checked" or given a width.
 // The same rules as the step-by-step page: an urgent symptom is answered at once without the
 // finger-width part, and so is a wound that has not healed (or that she is not sure of).
-
-/** The form's field names for one place. */
-export const siteField = (site: Site, part: 'width' | 'deep' | 'doming') => `${part}-${site}`;
-
-/** A symptom that needs help today or sooner: the advice comes without any self-examination. */
-export function isUrgent(symptoms: readonly RedFlag[]): boolean {
-	return symptoms.some((s) => ADVICE_RANK[SYMPTOM_URGENCY[s]] <= ADVICE_RANK.same_day);
-}
 
 const WORDS = {
 	symptoms: { label: 'Symptoms', missing: 'Tick what you noticed from the list, then save again.' },
