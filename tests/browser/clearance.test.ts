@@ -1,6 +1,6 @@
 import type { Browser, Page } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
-import { expect, test } from './support/test';
+import { expect, test, waitingForHydration } from './support/test';
 import { expectAccessible } from './a11y';
 import { seedLindenRowClient } from './support/self-care';
 import { signIn, sql } from './support/signin';
@@ -17,7 +17,8 @@ async function personPage(browser: Browser, email: string, width = 1280): Promis
 	const context = await browser.newContext({ viewport: { width, height: 900 } });
 	const page = await context.newPage();
 	await signIn(page, email);
-	return page;
+	// Like the fixture's page: goto returns once the page has hydrated.
+	return waitingForHydration(page);
 }
 
 async function seedCase(email: string, name: string) {

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import type { Browser, Page } from '@playwright/test';
-import { expect, test } from './support/test';
+import { expect, test, waitingForHydration } from './support/test';
 import { paddedPdf, pdfText, validPdf } from '../fixtures/pdf';
 import { expectAccessible } from './a11y';
 import { signIn, sql } from './support/signin';
@@ -20,7 +20,8 @@ const INSTRUCTOR = 'instructor@studio.example';
 async function personPage(browser: Browser, email: string): Promise<Page> {
 	const page = await (await browser.newContext()).newPage();
 	await signIn(page, email);
-	return page;
+	// Like the fixture's page: goto returns once the page has hydrated.
+	return waitingForHydration(page);
 }
 
 test('physio uploads with a progress bar and shares one document; the instructor downloads it stamped', async ({

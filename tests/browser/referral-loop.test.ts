@@ -1,5 +1,5 @@
 import type { Browser, Page } from '@playwright/test';
-import { expect, test } from './support/test';
+import { expect, test, waitingForHydration } from './support/test';
 import { expectAccessible } from './a11y';
 import { inbox, linkIn, signIn, sql, waitForNewMail } from './support/signin';
 
@@ -21,7 +21,8 @@ async function personPage(browser: Browser, email: string): Promise<Page> {
 	const context = await browser.newContext();
 	const page = await context.newPage();
 	await signIn(page, email);
-	return page;
+	// Like the fixture's page: goto returns once the page has hydrated.
+	return waitingForHydration(page);
 }
 
 const notices = async (address: string, subject: string) =>

@@ -44,13 +44,8 @@ export const LEVEL_WORDS: Record<EffectiveLevel, string> = {
 	no_limit: 'No limit noted'
 };
 
-/** A symbol beside each level, so the level never rests on colour. */
-export const LEVEL_SYMBOLS: Record<EffectiveLevel, string> = {
-	cleared: '✓',
-	modify: '≈',
-	hold: '✕',
-	no_limit: '–'
-};
+// In a module of its own so the clearance form loads the symbols without these words.
+export { LEVEL_SYMBOLS } from './level-symbols';
 
 /** The client's words for each kind of movement. */
 export const CLIENT_CATEGORY_WORDS: Record<MovementCategory, string> = {

@@ -8,11 +8,8 @@ import { formatDate } from '$lib/dates';
 
 // Words the screens use for stored codes, in one place.
 
-export const OUTCOME_LABELS: Record<Outcome, string> = {
-	within_limit: 'Within the limit',
-	monitor: 'Monitor',
-	refer: 'Refer'
-};
+// In a module of its own: the outcome badge, on many pages, needs only these words.
+export { OUTCOME_LABELS } from './outcome-labels';
 
 /** The client's own view: what the outcome means for her, without jargon. */
 export const OUTCOME_PLAIN: Record<Outcome, string> = {
