@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { reasonForClient, readableDays } from './words';
+import { reasonForClient } from './client-words';
+import { readableDays } from './words';
 
 // The limits' reasons as the client reads them on her own record. The sentences are the
 // templates of src/lib/domain/limits-rules.ts and limits-holds.ts with invented days.
