@@ -16,9 +16,8 @@ import { sharedTransaction, sharedTransactions, type SharedTransaction } from '.
 export async function readAsOne<T>(work: () => Promise<T>): Promise<T> {
 	if (sharedTransaction()) return work();
 	const afterEnd: Array<() => Promise<void>> = [];
-	let outcome: { ok: true; value: T } | { ok: false; error: unknown };
 	try {
-		const value = await ownDb().transaction(async (tx) => {
+		return await ownDb().transaction(async (tx) => {
 			const shared: SharedTransaction = {
 				tx,
 				executor: inPlace(tx, () => shared.open),
@@ -35,14 +34,10 @@ export async function readAsOne<T>(work: () => Promise<T>): Promise<T> {
 				shared.open = false;
 			}
 		});
-		outcome = { ok: true, value };
-	} catch (error) {
-		outcome = { ok: false, error };
+	} finally {
+		// Refusals, once the page's connection is back in the pool (see SharedTransaction).
+		for (const step of afterEnd) await step();
 	}
-	// Refusals, once the page's connection is back in the pool (see SharedTransaction).
-	for (const step of afterEnd) await step();
-	if (!outcome.ok) throw outcome.error;
-	return outcome.value;
 }
 
 /**

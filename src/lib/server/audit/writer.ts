@@ -71,33 +71,23 @@ export async function recordAccesses(
 	if (shared && executor === shared.executor) {
 		// A page's shared transaction writes every service's rows in one insert before it
 		// commits (see `readAsOne`): same rows, same transaction, one statement.
-		const pending = (pendingRows.get(shared) ?? []).concat({ context, events });
-		if (!pendingRows.has(shared)) {
-			shared.beforeCommit.push(() => writePending(shared.tx, pendingRows.get(shared) ?? []));
+		let pending = pendingRows.get(shared);
+		if (!pending) {
+			const rows = new Map<AccessContext, AccessEvent[]>();
+			pending = rows;
+			pendingRows.set(shared, rows);
+			shared.beforeCommit.push(async () => {
+				for (const [who, rowsOf] of rows) await insertAccesses(shared.tx, who, rowsOf);
+			});
 		}
-		pendingRows.set(shared, pending);
+		pending.set(context, [...(pending.get(context) ?? []), ...events]);
 		return;
 	}
 	await insertAccesses(executor, context, events);
 }
 
-/** Rows recorded in a page's shared transaction, not yet written. */
-const pendingRows = new WeakMap<
-	object,
-	Array<{ context: AccessContext; events: readonly AccessEvent[] }>
->();
-
-/** One insert per request context (a page's rows all share one). */
-async function writePending(
-	executor: Executor,
-	pending: ReadonlyArray<{ context: AccessContext; events: readonly AccessEvent[] }>
-): Promise<void> {
-	const byContext = new Map<AccessContext, AccessEvent[]>();
-	for (const { context, events } of pending) {
-		byContext.set(context, [...(byContext.get(context) ?? []), ...events]);
-	}
-	for (const [context, events] of byContext) await insertAccesses(executor, context, events);
-}
+/** Rows recorded in a page's shared transaction, not yet written: one insert per context. */
+const pendingRows = new WeakMap<object, Map<AccessContext, AccessEvent[]>>();
 
 async function insertAccesses(
 	executor: Executor,

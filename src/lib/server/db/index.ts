@@ -12,8 +12,8 @@ export type Executor = Database | Transaction;
 let instance: Database | undefined;
 
 /**
- * The one database handle, created on first use so that `vite build` (which imports server
- * modules) needs no database.
+ * The database handle services use: the pool (created on first use, so that `vite build`
+ * needs no database), or inside a page's shared transaction that transaction (`readAsOne`).
  */
 export function db(): Database {
 	return sharedTransaction()?.executor ?? ownDb();
